@@ -1,0 +1,56 @@
+import { describe, expect, it } from 'vitest'
+import { kendallTau, kendallTauNaive } from '#shared/analysis/kendall'
+import { createRng } from '#shared/analysis/random'
+
+describe('Kendall τ worked examples', () => {
+  // Hollander & Wolfe (1973) p. 187f tuna data, base R cor.test example (SCIENCE.md B1 item 1):
+  // R prints T = 26; exact=FALSE gives one-sided p = 0.04765 (no continuity correction, z = 1.668115).
+  it('tuna data: τ = 0.4444444, S = 16, Var(S) = 92, z = 1.668115, p(greater) = 0.04765', () => {
+    const x = [44.4, 45.9, 41.9, 53.3, 44.7, 44.1, 50.7, 45.2, 60.1]
+    const y = [2.6, 3.1, 2.5, 5.0, 3.6, 4.0, 5.2, 2.8, 3.8]
+    const result = kendallTau(x, y)
+    expect(result.tauB).toBeCloseTo(0.4444444, 7)
+    expect(result.s).toBe(16)
+    expect(result.varianceS).toBeCloseTo(92, 10)
+    expect(result.z).toBeCloseTo(1.668115, 6)
+    expect(result.pGreater).toBeCloseTo(0.04765, 5)
+  })
+  // Kendall (1976) Rank Correlation Methods Ex. 3.4, via the R package `Kendall` documentation
+  // (SCIENCE.md B1 item 2): documented S = 34, τ = 0.41; computed τ_b = 0.4075438063, Var(S) = 344.5588.
+  it('Kendall Ex. 3.4 (heavy ties): S = 34, τ-b = 0.4075438063, τ-a = 0.25, Var(S) = 344.5588', () => {
+    const a = [2.5, 2.5, 2.5, 2.5, 5, 6.5, 6.5, 10, 10, 10, 10, 10, 14, 14, 14, 16, 17]
+    const b = [1, 1, 1, 1, 2, 1, 1, 2, 1, 1, 1, 1, 1, 1, 2, 2, 2]
+    const result = kendallTau(a, b)
+    expect(result.s).toBe(34)
+    expect(result.tauB).toBeCloseTo(0.4075438063, 10)
+    expect(result.tauA).toBeCloseTo(0.25, 12)
+    expect(result.varianceS).toBeCloseTo(344.5588, 4)
+  })
+  // Kendall (1976) Ex. 4.3, same documentation (SCIENCE.md B1 item 3): documented S = 34, Var(S) = 203.30.
+  it('Kendall Ex. 4.3: S = 34, Var(S) = 203.3030303, τ-b = 0.5528638004, τ-a = 0.5151515', () => {
+    const x = [1.5, 1.5, 3, 4, 6, 6, 6, 8, 9.5, 9.5, 11, 12]
+    const y = [2.5, 2.5, 7, 4.5, 1, 4.5, 6, 11.5, 11.5, 8.5, 8.5, 10]
+    const result = kendallTau(x, y)
+    expect(result.s).toBe(34)
+    expect(result.varianceS).toBeCloseTo(203.3030303, 7)
+    expect(result.tauB).toBeCloseTo(0.5528638004, 10)
+    expect(result.tauA).toBeCloseTo(0.5151515, 7)
+  })
+})
+
+describe('Knight O(n log n) τ equals the O(n²) pair count', () => {
+  const rng = createRng(7)
+  const cases = Array.from({ length: 60 }, (_, k) => {
+    const n = 2 + rng.integer(300)
+    const levels = [2, 5, 20, 1e9][k % 4]!
+    return [n, levels, Array.from({ length: n }, () => rng.integer(levels)), Array.from({ length: n }, () => rng.integer(levels))] as const
+  })
+  it.each(cases)('n = %i, values on %i levels (ties)', (_, __, x, y) => {
+    const fast = kendallTau(x, y)
+    const slow = kendallTauNaive(x, y)
+    expect(fast.s).toBe(slow.s)
+    expect(fast.varianceS).toBeCloseTo(slow.varianceS, 6)
+    if (Number.isNaN(slow.tauB)) expect(fast.tauB).toBeNaN()
+    else expect(fast.tauB).toBeCloseTo(slow.tauB, 12)
+  })
+})
