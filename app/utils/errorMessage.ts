@@ -1,0 +1,2 @@
+export const errorMessage = (err: unknown, fallback = 'Something went wrong') =>
+  (err as { data?: { message?: string } })?.data?.message ?? fallback

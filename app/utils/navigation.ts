@@ -1,0 +1,12 @@
+import type { Capability } from '#shared/utils/roles'
+
+export interface NavItem { to: string, label: string, capability: Capability }
+
+// Each role sees its own work (DESIGN.md §2); the server checks the same capabilities per route.
+export const NAV_ITEMS: NavItem[] = [
+  { to: '/', label: 'Overview', capability: 'view' },
+  { to: '/units', label: 'Units', capability: 'view' },
+  { to: '/tags', label: 'Tags', capability: 'view' },
+  { to: '/admin/users', label: 'Users', capability: 'administer' },
+  { to: '/admin/audit', label: 'Audit log', capability: 'administer' },
+]

@@ -1,0 +1,46 @@
+import { cpSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
+
+// Migrations live in drizzle/ (drizzle-kit's default); the built server must find them next to
+// itself, so the compiled hook copies them into .output/.
+const migrationsDir = fileURLToPath(new URL('./drizzle', import.meta.url))
+
+export default defineNuxtConfig({
+  compatibilityDate: '2025-07-15',
+  devtools: { enabled: false },
+  telemetry: false,
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@vueuse/nuxt'],
+  css: ['@fontsource/roboto-mono/400.css', '@fontsource/roboto-mono/700.css', '~/assets/css/main.css'],
+  app: {
+    head: {
+      title: 'Brinkline',
+      htmlAttrs: { lang: 'en' },
+      meta: [{ name: 'viewport', content: 'width=device-width, initial-scale=1' }],
+    },
+  },
+  runtimeConfig: {
+    databaseUrl: '',
+    smtpUrl: '',
+    mailFrom: 'Brinkline <brinkline@localhost>',
+    publicUrl: 'http://127.0.0.1:3000',
+    session: { maxAge: 60 * 60 * 12 },
+  },
+  nitro: {
+    preset: 'node-server',
+    experimental: { tasks: true },
+    hooks: {
+      compiled(nitro) {
+        cpSync(migrationsDir, `${nitro.options.output.serverDir}/drizzle`, { recursive: true })
+      },
+    },
+  },
+  hooks: {
+    // Our handler answers database outages with 503 first; Nuxt's own handler renders the rest.
+    'nitro:config'(config) {
+      const existing = config.errorHandler ? [config.errorHandler].flat() : []
+      config.errorHandler = [fileURLToPath(new URL('./server/error.ts', import.meta.url)), ...existing]
+    },
+  },
+  tailwindcss: { cssPath: false, viewer: false },
+  typescript: { strict: true },
+})

@@ -1,0 +1,74 @@
+#!/usr/bin/env bash
+# `npm start`: everything a new machine needs, then the demo plant running. Ctrl-C stops what
+# this script started; the next start finds the data where it was left.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+source scripts/lib.sh
+
+export BRINKLINE_STATE_DIR=${BRINKLINE_STATE_DIR:-$PWD/.data}
+mkdir -p "$BRINKLINE_STATE_DIR"
+PORT=${PORT:-3000}
+HOST=${HOST:-127.0.0.1}
+URL="http://$HOST:$PORT"
+
+ensure_node_modules
+
+PG_STATE=$(scripts/pg.sh start | tail -1)
+PIDS=()
+cleanup() {
+  trap - INT TERM EXIT
+  echo; echo "» stopping…"
+  for pid in "${PIDS[@]}"; do kill "$pid" 2>/dev/null || true; done
+  wait 2>/dev/null || true
+  if [ "$PG_STATE" = STARTED ]; then scripts/pg.sh stop; echo "» PostgreSQL stopped"; fi
+}
+trap cleanup INT TERM EXIT
+
+# Secrets made once per installation and kept in the state dir (never committed).
+CREDS="$BRINKLINE_STATE_DIR/demo-credentials.env"
+if [ ! -f "$CREDS" ]; then
+  umask 077
+  { echo "BRINKLINE_DEMO_PASSWORD=$(random_secret 12)"
+    echo "BRINKLINE_SIM_KEY=bk_$(random_secret 40)"
+    echo "NUXT_SESSION_PASSWORD=$(random_secret 48)"; } > "$CREDS"
+fi
+set -a; source "$CREDS"; set +a
+
+export NUXT_DATABASE_URL=${NUXT_DATABASE_URL:-$(scripts/pg.sh url)}
+export NUXT_PUBLIC_URL=$URL
+export MAIL_SMTP_PORT=${MAIL_SMTP_PORT:-1025} MAIL_HTTP_PORT=${MAIL_HTTP_PORT:-1080}
+export NUXT_SMTP_URL=${NUXT_SMTP_URL:-smtp://127.0.0.1:$MAIL_SMTP_PORT}
+export BRINKLINE_SEED_DEMO=1
+
+ensure_build
+
+if [ -f simulators/mailCatcher.ts ]; then
+  MAIL_DIR="$BRINKLINE_STATE_DIR/mail" npx tsx simulators/mailCatcher.ts > "$BRINKLINE_STATE_DIR/mail-catcher.log" 2>&1 &
+  PIDS+=($!)
+fi
+
+PORT=$PORT HOST=$HOST node .output/server/index.mjs > "$BRINKLINE_STATE_DIR/server.log" 2>&1 &
+PIDS+=($!)
+wait_for_health "$URL" 240 || { tail -30 "$BRINKLINE_STATE_DIR/server.log"; echo "server did not become healthy" >&2; exit 1; }
+
+if [ -f simulators/run.ts ]; then
+  npx tsx simulators/run.ts --unit all --url "$URL" --key "$BRINKLINE_SIM_KEY" --backfill-hours "${SIM_BACKFILL_HOURS:-6}" \
+    > "$BRINKLINE_STATE_DIR/simulators.log" 2>&1 &
+  PIDS+=($!)
+fi
+
+cat <<INFO
+
+  Brinkline is running:  $URL
+  Local mailbox:         http://127.0.0.1:$MAIL_HTTP_PORT
+
+  Demo sign-ins (password for all: $BRINKLINE_DEMO_PASSWORD)
+    operator    operator@harrowgate.example
+    engineer    engineer@harrowgate.example
+    supervisor  supervisor@harrowgate.example
+    admin       admin@harrowgate.example
+
+  Logs in $BRINKLINE_STATE_DIR. Advisory only: follow the plant's operating procedures.
+  Press Ctrl-C to stop.
+INFO
+wait -n "${PIDS[@]}" || true

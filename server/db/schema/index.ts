@@ -1,0 +1,4 @@
+export * from './users'
+export * from './plant'
+export * from './samples'
+export * from './audit'

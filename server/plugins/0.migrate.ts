@@ -1,0 +1,37 @@
+import { existsSync } from 'node:fs'
+import { dirname, join } from 'node:path'
+import { fileURLToPath } from 'node:url'
+import { migrate } from 'drizzle-orm/postgres-js/migrator'
+
+// Migrations run at start-up so a new build never meets an old schema. The built server finds
+// drizzle/ beside itself (copied by the compiled hook); dev and tests find it at the root.
+function migrationsFolder(): string {
+  const candidates = [
+    join(dirname(fileURLToPath(import.meta.url)), '..', 'drizzle'),
+    join(process.cwd(), '.output', 'server', 'drizzle'),
+    join(process.cwd(), 'drizzle'),
+  ]
+  const found = candidates.find(dir => existsSync(join(dir, 'meta', '_journal.json')))
+  if (!found) throw new Error(`Migrations not found in ${candidates.join(', ')}`)
+  return found
+}
+
+let migrated: Promise<void> | undefined
+
+/** Runs pending migrations once; after a failure (database down) the next caller tries again. */
+export function ensureMigrated(): Promise<void> {
+  migrated ??= migrate(useDb(), { migrationsFolder: migrationsFolder() }).catch((err) => {
+    migrated = undefined
+    throw err
+  })
+  return migrated
+}
+
+export default defineNitroPlugin((nitroApp) => {
+  if (process.env.BRINKLINE_SKIP_MIGRATE === '1') return
+  ensureMigrated().then(() => console.log('[db] migrations applied'), err => console.error('[db] migration deferred:', err.message))
+  // Nitro does not await plugins: API requests wait here until the schema is current.
+  nitroApp.hooks.hook('request', async (event) => {
+    if (event.path.startsWith('/api/')) await ensureMigrated()
+  })
+})

@@ -1,0 +1,11 @@
+import { ensureMigrated } from './0.migrate'
+
+// The demo site is seeded by the start command and the tests (BRINKLINE_SEED_DEMO=1), never in
+// production. Its password comes from the environment; the fallback is a development default.
+export default defineNitroPlugin(() => {
+  if (process.env.BRINKLINE_SEED_DEMO !== '1') return
+  const password = process.env.BRINKLINE_DEMO_PASSWORD || 'brinkline-demo'
+  ensureMigrated()
+    .then(() => seedDemo(useDb(), password, hashPassword))
+    .then(() => console.log('[seed] demo site ready'), err => console.error('[seed] failed:', err.message))
+})

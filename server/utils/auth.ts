@@ -1,0 +1,25 @@
+import type { H3Event } from 'h3'
+import type { User } from '#auth-utils'
+import { can, type Capability, type Role } from '#shared/utils/roles'
+
+/** 401 unless signed in. Every protected route starts here or with requireRole. */
+export async function requireUser(event: H3Event): Promise<User> {
+  const { user } = await requireUserSession(event, { message: 'Sign in required' })
+  return user
+}
+
+/** 401 unless signed in, 403 unless the user's role is one of `roles`. */
+export async function requireRole(event: H3Event, ...roles: Role[]): Promise<User> {
+  const user = await requireUser(event)
+  if (!roles.includes(user.role))
+    throw createError({ statusCode: 403, message: `This needs the ${roles.join(' or ')} role; you are signed in as ${user.role}` })
+  return user
+}
+
+/** Same as requireRole, phrased by capability (DESIGN.md §2). */
+export async function requireCapability(event: H3Event, capability: Capability): Promise<User> {
+  const user = await requireUser(event)
+  if (!can(user.role, capability))
+    throw createError({ statusCode: 403, message: `Your role (${user.role}) may not ${capability}` })
+  return user
+}

@@ -1,0 +1,28 @@
+import postgres from 'postgres'
+import { drizzle } from 'drizzle-orm/postgres-js'
+import * as schema from '../db/schema'
+
+export type Db = ReturnType<typeof createDb>
+
+function createDb(url: string) {
+  const client = postgres(url, {
+    max: Number(process.env.BRINKLINE_DB_POOL ?? 20),
+    // Fail fast when the database is down so callers answer 503 instead of hanging.
+    connect_timeout: 5,
+    idle_timeout: 30,
+    onnotice: () => {},
+  })
+  return Object.assign(drizzle(client, { schema }), { $sql: client })
+}
+
+let db: Db | undefined
+
+/** The process-wide database handle (one pool per server instance). */
+export function useDb(): Db {
+  if (!db) {
+    const url = useRuntimeConfig().databaseUrl || process.env.DATABASE_URL
+    if (!url) throw new Error('Database URL missing: set NUXT_DATABASE_URL')
+    db = createDb(url)
+  }
+  return db
+}

@@ -1,0 +1,47 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { BrowserContext } from 'playwright-core'
+import { url } from '@nuxt/test-utils/e2e'
+import { setupBuiltServer } from '../support/server'
+import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
+import type { Role } from '../../shared/utils/roles'
+
+await setupBuiltServer()
+
+// DESIGN.md §2: each role sees its own work. Admin pages are only in the admin's navigation.
+const EXPECTED_NAV: Record<Role, string[]> = {
+  operator: ['Overview', 'Units', 'Tags'],
+  engineer: ['Overview', 'Units', 'Tags'],
+  supervisor: ['Overview', 'Units', 'Tags'],
+  admin: ['Overview', 'Units', 'Tags', 'Users', 'Audit log'],
+}
+
+let context: BrowserContext
+beforeAll(async () => { context = await launchChromium() })
+afterAll(async () => { await context?.close() })
+
+describe('each role signs in and sees its pages', () => {
+  it('sends a signed-out visitor to the sign-in page', async () => {
+    const page = await context.newPage()
+    await page.goto(url('/tags'))
+    await page.waitForURL(/\/sign-in\?redirect=/)
+    await screenshot(page, 'sign-in')
+    await page.close()
+  })
+
+  for (const role of Object.keys(EXPECTED_NAV) as Role[]) {
+    it(`${role}: navigation and every page render real rows`, async () => {
+      await context.clearCookies()
+      const page = await context.newPage()
+      await signInThroughForm(page, role)
+      const nav = page.getByRole('navigation', { name: 'Main' }).getByRole('link')
+      expect(await nav.allTextContents()).toEqual(EXPECTED_NAV[role])
+      for (const label of EXPECTED_NAV[role]) {
+        await nav.getByText(label, { exact: true }).click()
+        await page.getByRole('heading', { name: label }).first().waitFor()
+        await expect.poll(() => page.locator('tbody tr').count()).toBeGreaterThan(0)
+        await screenshot(page, `${role}-${label.toLowerCase().replace(/\s+/g, '-')}`)
+      }
+      await page.close()
+    })
+  }
+})

@@ -1,0 +1,35 @@
+import { mkdtempSync, mkdirSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { chromium, type BrowserContext, type Page } from 'playwright-core'
+import { url } from '@nuxt/test-utils/e2e'
+import type { Role } from '../../shared/utils/roles'
+import { DEMO_PASSWORD, demoEmail } from './session'
+
+const SCREENSHOTS = join(process.env.TEST_OUTPUT_DIR ?? 'test-output', 'screenshots')
+
+// Debian's Chromium with the flags this closed network needs (no background connections).
+export async function launchChromium(): Promise<BrowserContext> {
+  return chromium.launchPersistentContext(mkdtempSync(join(tmpdir(), 'brinkline-chromium-')), {
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    headless: true,
+    viewport: { width: 1440, height: 900 },
+    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
+      '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  })
+}
+
+export async function signInThroughForm(page: Page, role: Role): Promise<void> {
+  await page.goto(url('/sign-in'))
+  await page.getByLabel('E-mail').fill(demoEmail(role))
+  await page.getByLabel('Password').fill(DEMO_PASSWORD)
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await page.getByTestId('signed-in-as').waitFor()
+}
+
+export async function screenshot(page: Page, name: string): Promise<string> {
+  mkdirSync(SCREENSHOTS, { recursive: true })
+  const path = join(SCREENSHOTS, `${name}.png`)
+  await page.screenshot({ path, fullPage: true })
+  return path
+}
