@@ -45,3 +45,13 @@ export function boxMuller(uniform: Uniform): Normal {
 export function seededNormal(seed: number): Normal {
   return boxMuller(mulberry32(seed))
 }
+
+/**
+ * A seed for one named stream derived from the run's seed (FNV-1a over the name), so each unit
+ * and each unit's sensors get independent noise that still replays exactly.
+ */
+export function deriveSeed(seed: number, streamName: string): number {
+  let hash = (0x811c9dc5 ^ seed) >>> 0
+  for (const char of streamName) hash = Math.imul(hash ^ char.charCodeAt(0), 0x01000193) >>> 0
+  return hash
+}
