@@ -41,7 +41,7 @@ export const CATALOGUE: readonly CatalogueUnit[] = [
     description: 'Jacketed stirred-tank reactor on its cool branch; cooling-water temperature creeps up until it ignites.',
     drifts: true,
     tags: [
-      { code: 'TI-101', description: 'Reactor temperature', engineeringUnit: 'K', samplePeriodSeconds: 5, rangeLow: 300, rangeHigh: 500, noiseFloor: 0.1, resolution: 0.01 },
+      { code: 'TI-101', description: 'Reactor temperature', engineeringUnit: 'K', samplePeriodSeconds: 1, rangeLow: 300, rangeHigh: 500, noiseFloor: 0.1, resolution: 0.01 },
       { code: 'AI-102', description: 'Reactant concentration (analyser)', engineeringUnit: 'mol/L', samplePeriodSeconds: 30, rangeLow: 0, rangeHigh: 1.2, noiseFloor: 0.005, resolution: 0.001 },
     ],
   },
@@ -53,8 +53,8 @@ export const CATALOGUE: readonly CatalogueUnit[] = [
     drifts: true,
     tags: [
       { code: 'AI-201', description: 'Volatile fatty acids (online titrator)', engineeringUnit: 'mmol/L', samplePeriodSeconds: 20, rangeLow: 0, rangeHigh: 200, noiseFloor: 1.5, resolution: 0.1 },
-      { code: 'AI-202', description: 'Digester pH', engineeringUnit: 'pH', samplePeriodSeconds: 5, rangeLow: 0, rangeHigh: 14, noiseFloor: 0.02, resolution: 0.01 },
-      { code: 'FI-203', description: 'Biogas flow', engineeringUnit: 'm³/h', samplePeriodSeconds: 5, rangeLow: 0, rangeHigh: 300, noiseFloor: 1.5, resolution: 0.1 },
+      { code: 'AI-202', description: 'Digester pH', engineeringUnit: 'pH', samplePeriodSeconds: 2, rangeLow: 0, rangeHigh: 14, noiseFloor: 0.003, resolution: 0.001 },
+      { code: 'FI-203', description: 'Biogas flow', engineeringUnit: 'm³/h', samplePeriodSeconds: 2, rangeLow: 0, rangeHigh: 300, noiseFloor: 0.5, resolution: 0.1 },
     ],
   },
   {

@@ -12,9 +12,10 @@ const SCALE: CstrPlantScale = { feedTemperature: 350, feedConcentration: 1 }
 const RESIDENCE_TIME_SECONDS = 600
 const { gamma } = URP_BENCHMARK
 
-// One wall second is one process minute: far from the fold the reactor relaxes in about
-// 2θ ≈ 20 wall seconds, four temperature samples, so slowing down is visible at the demo pace.
-const RESIDENCE_TIMES_PER_WALL_SECOND = 60 / RESIDENCE_TIME_SECONDS
+// One wall second is 2.5 process minutes: far from the fold the reactor relaxes in about
+// 2θ ≈ 8 wall seconds (eight temperature samples), and the approach spans ~600 residence times,
+// enough relaxation times for rolling-window indicators to see the slowing down at demo pace.
+const RESIDENCE_TIMES_PER_WALL_SECOND = 150 / RESIDENCE_TIME_SECONDS
 const WALL_MINUTES_TO_FOLD = 40
 const WALL_MINUTES_TIPPED = 5
 // Above the saddle and short of the hot state (x2 ≈ 4.7): the reactor has run away.

@@ -19,11 +19,14 @@ const ALKALINITY_Z = 110 // mmol/L
 const DISSOLVED_CO2 = 16 * 0.35 // K_H (mmol/(L·atm), SCIENCE.md C3) × P_CO2 0.35 atm
 const PK_CARBONIC = 6.19 // −log10(6.5e-7 mol/L)
 
-// One wall second is 0.1 day: far from the fold the digester relaxes in ~3 days ≈ 30 wall seconds.
-const DAYS_PER_WALL_SECOND = 0.1
+// One wall second is 8 process hours: at the start the digester relaxes in ~4 days ≈ 13 wall
+// seconds. The approach is far slower than a real one (SCIENCE.md C3: 30–100 d) so that it spans
+// enough relaxation times for the slowing down to show at demo pace.
+const DAYS_PER_WALL_SECOND = 1 / 3
 const WALL_MINUTES_TO_FOLD = 45
 const WALL_MINUTES_TIPPED = 5
-const START_DILUTION = 0.9 // d⁻¹
+// Slowing down only shows within ~5–7% of D_c (SCIENCE.md C3), so the demo starts close to it.
+const START_DILUTION = 0.98 // d⁻¹
 // Well above the working branch (S2* ≤ 48.7 mmol/L) and its saddle at the fold: soured.
 const SOURED_VFA = 80
 
@@ -47,7 +50,7 @@ export function createDigesterUnit(options: UnitOptions) {
     modelTimePerWallSecond: DAYS_PER_WALL_SECOND,
     maxStep: 0.01,
     // Feed-strength fluctuations act mostly on the VFA balance; biomass noise is small.
-    noiseSd: [0.003, 1.0],
+    noiseSd: [0.003, 2.5],
     cycle: {
       start: START_DILUTION,
       fold: digesterFoldDilution().D,
