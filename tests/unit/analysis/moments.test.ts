@@ -5,7 +5,7 @@ import { centredSums } from '#shared/analysis/moments'
 import { RollingWindow } from '#shared/analysis/rolling'
 import { createRng } from '#shared/analysis/random'
 import type { Indicators } from '#shared/analysis/types'
-import { NIST_DATASETS } from './nistData'
+import { NIST_DATASETS } from './support/nistData'
 
 const relativeError = (actual: number, expected: number): number => Math.abs(actual - expected) / Math.abs(expected)
 

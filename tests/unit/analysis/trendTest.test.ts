@@ -3,26 +3,7 @@ import { createRng } from '#shared/analysis/random'
 import { simulateOu } from '#shared/analysis/simulate'
 import { surrogateTrendTest } from '#shared/analysis/trendTest'
 import type { SurrogateKind } from '#shared/analysis/surrogates'
-
-/** P(X ≤ x) for X ~ Binomial(n, p), by summing the probability mass function. */
-function binomialCdf(x: number, n: number, p: number): number {
-  let pmf = (1 - p) ** n
-  let cdf = pmf
-  for (let k = 1; k <= x; k++) {
-    pmf *= ((n - k + 1) / k) * (p / (1 - p))
-    cdf += pmf
-  }
-  return cdf
-}
-
-/** Smallest and largest rejection counts outside which a Binomial(n, p) falls with probability ≤ 0.001 per side. */
-function binomialBounds(n: number, p: number): [number, number] {
-  let low = 0
-  while (binomialCdf(low, n, p) < 0.001) low++
-  let high = n
-  while (1 - binomialCdf(high - 1, n, p) < 0.001) high--
-  return [low, high]
-}
+import { binomialBounds } from './support/binomial'
 
 // Monte-Carlo test validity (Davison & Hinkley 1997, via SCIENCE.md A3 step 5): under a stationary
 // null p = (1 + #{τ* ≥ τ})/(N + 1) is uniform on {1/(N+1), …, 1}, so with N = 99 the rejection
