@@ -25,9 +25,10 @@ export interface RunningMailCatcher {
   close(): Promise<void>
 }
 
-function addressText(address: AddressObject | AddressObject[] | undefined): string[] {
-  if (!address) return []
-  return (Array.isArray(address) ? address : [address]).map(a => a.text)
+/** Recipient addresses, one entry each. */
+function addresses(header: AddressObject | AddressObject[] | undefined): string[] {
+  if (!header) return []
+  return (Array.isArray(header) ? header : [header]).flatMap(h => h.value.map(v => v.address ?? v.name))
 }
 
 export async function startMailCatcher(options: MailCatcherOptions): Promise<RunningMailCatcher> {
@@ -52,7 +53,7 @@ export async function startMailCatcher(options: MailCatcherOptions): Promise<Run
           await store.add({
             id: randomUUID(),
             from: parsed.from?.text ?? (session.envelope.mailFrom || { address: '' }).address,
-            to: addressText(parsed.to).length ? addressText(parsed.to) : envelopeTo,
+            to: addresses(parsed.to).length ? addresses(parsed.to) : envelopeTo,
             subject: parsed.subject ?? '',
             text: parsed.text ?? '',
             html: typeof parsed.html === 'string' ? parsed.html : '',
