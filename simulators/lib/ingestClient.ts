@@ -214,10 +214,10 @@ export class IngestClient {
   }
 
   private sleep(ms: number): Promise<void> {
-    return new Promise((resolve) => {
+    return new Promise<void>((resolve) => {
       const timer = setTimeout(done, ms)
       function done() { clearTimeout(timer); resolve() }
       this.wakeSleeper = done
-    }).finally(() => { this.wakeSleeper = undefined }) as Promise<void>
+    }).finally(() => { this.wakeSleeper = undefined })
   }
 }

@@ -66,21 +66,6 @@ export function slowestRate(m: readonly (readonly number[])[]): number {
   return Math.max(...eigenvalues2x2(m).re)
 }
 
-/** Newton's method for a 2-D system f(x) = 0 with a numerical Jacobian. */
-export function newton2(f: (x: readonly number[]) => number[], start: readonly number[], tolerance = 1e-12, maxIterations = 100): number[] {
-  let x = [...start]
-  for (let k = 0; k < maxIterations; k++) {
-    const r = f(x)
-    const j = numericalJacobian(f, x)
-    const det = j[0]![0]! * j[1]![1]! - j[0]![1]! * j[1]![0]!
-    const dx0 = (j[1]![1]! * r[0]! - j[0]![1]! * r[1]!) / det
-    const dx1 = (-j[1]![0]! * r[0]! + j[0]![0]! * r[1]!) / det
-    x = [x[0]! - dx0, x[1]! - dx1]
-    if (Math.abs(dx0) + Math.abs(dx1) < tolerance * (1 + Math.abs(x[0]!) + Math.abs(x[1]!))) return x
-  }
-  throw new Error(`Newton did not converge from [${start.join(', ')}]`)
-}
-
 /**
  * First local maximum of f on [low, high]: scan a grid, then refine with golden section between
  * the neighbours of the first grid peak. Used to trace a fold as the turning point of an

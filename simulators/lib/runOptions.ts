@@ -13,6 +13,8 @@ export interface RunOptions {
 
 export const USAGE = 'usage: npx tsx simulators/run.ts --unit cstr|digester|grid|steady|all --url http://127.0.0.1:3000 '
   + '--key <gateway key> [--speed N] [--seed S] [--backfill-hours H]\n'
+  + '  --speed: multiple of the demo pace (1: each drifting unit reaches its fold in 35–45 min of wall time)\n'
+  + '  --backfill-hours: first post this much history, as fast as the server takes it\n'
   + '  env: BRINKLINE_URL, BRINKLINE_SIM_KEY, SIM_SPEED'
 
 function positiveNumber(name: string, raw: string): number {

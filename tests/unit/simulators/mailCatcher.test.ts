@@ -2,6 +2,7 @@ import { mkdtemp, readFile, rm } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import nodemailer from 'nodemailer'
+import type Mail from 'nodemailer/lib/mailer'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startMailCatcher, type RunningMailCatcher } from '../../../simulators/mailCatcher'
 import type { CaughtMessage } from '../../../simulators/mail/mailStore'
@@ -21,7 +22,7 @@ afterAll(async () => {
   await rm(dir, { recursive: true, force: true })
 })
 
-function send(message: nodemailer.SendMailOptions) {
+function send(message: Mail.Options) {
   const transport = nodemailer.createTransport({ host: '127.0.0.1', port: catcher.smtpPort, secure: false, ignoreTLS: true })
   return transport.sendMail({ from: 'Brinkline <alerts@fenwick.example>', ...message })
 }
