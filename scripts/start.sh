@@ -42,8 +42,8 @@ export BRINKLINE_SEED_DEMO=1
 
 ensure_build
 
-if [ -f simulators/mailCatcher.ts ]; then
-  MAIL_DIR="$BRINKLINE_STATE_DIR/mail" npx tsx simulators/mailCatcher.ts > "$BRINKLINE_STATE_DIR/mail-catcher.log" 2>&1 &
+if [ -f simulators/localMailbox.ts ]; then
+  MAIL_DIR="$BRINKLINE_STATE_DIR/mail" npx tsx simulators/localMailbox.ts > "$BRINKLINE_STATE_DIR/mail-catcher.log" 2>&1 &
   PIDS+=($!)
 fi
 

@@ -6,6 +6,6 @@ export default defineNitroPlugin(() => {
   if (process.env.BRINKLINE_SEED_DEMO !== '1') return
   const password = process.env.BRINKLINE_DEMO_PASSWORD || 'brinkline-demo'
   ensureMigrated()
-    .then(() => seedDemo(useDb(), password, hashPassword))
+    .then(() => seedDemo(useDb(), password, hashPassword, process.env.BRINKLINE_SIM_KEY))
     .then(() => console.log('[seed] demo site ready'), err => console.error('[seed] failed:', err.message))
 })

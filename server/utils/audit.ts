@@ -1,10 +1,8 @@
 import type { H3Event } from 'h3'
 import { auditLog } from '../db/schema'
 
-type Executor = Pick<Db, 'insert'>
-
 /** Appends one audit record; pass the transaction so the record and the change commit together. */
-export async function writeAudit(db: Executor, entry: {
+export async function writeAudit(db: DbExecutor, entry: {
   userId: number | null
   action: string
   target?: string

@@ -26,3 +26,6 @@ export function useDb(): Db {
   }
   return db
 }
+
+/** The database or a transaction on it: query helpers that may run inside one take this. */
+export type DbExecutor = Pick<Db, 'select' | 'insert' | 'update' | 'delete'>

@@ -1,6 +1,6 @@
 import { and, eq } from 'drizzle-orm'
 import { CATALOGUE, DEMO_COMPANY, DEMO_SITE } from '../../simulators/catalogue'
-import { sites, tags, units, users } from '../db/schema'
+import { gateways, sites, tags, units, users } from '../db/schema'
 import type { Role } from '#shared/utils/roles'
 
 export const DEMO_USERS: ReadonlyArray<{ email: string, name: string, role: Role }> = [
@@ -15,7 +15,9 @@ export const DEMO_USERS: ReadonlyArray<{ email: string, name: string, role: Role
  * one user per role. Idempotent: existing rows are left as they are, so edits made in the app
  * survive a restart.
  */
-export async function seedDemo(db: Db, password: string, hash: (p: string) => Promise<string>): Promise<void> {
+export const DEMO_GATEWAY = 'Demo plant simulators'
+
+export async function seedDemo(db: Db, password: string, hash: (p: string) => Promise<string>, simulatorKey?: string): Promise<void> {
   const passwordHash = await hash(password)
   await db.transaction(async (tx) => {
     await tx.insert(users).values(DEMO_USERS.map(u => ({ ...u, passwordHash }))).onConflictDoNothing()
@@ -31,6 +33,12 @@ export async function seedDemo(db: Db, password: string, hash: (p: string) => Pr
         siteId: site!.id, unitId: row!.id, code: t.code, description: t.description, engineeringUnit: t.engineeringUnit,
         samplePeriodS: t.samplePeriodSeconds, rangeLow: t.rangeLow, rangeHigh: t.rangeHigh, noiseFloor: t.noiseFloor,
       }))).onConflictDoNothing()
+    }
+    // The simulators' key comes from the start command's credentials file; follow it if remade.
+    if (simulatorKey) {
+      const keyFields = { keyHash: hashIngestKey(simulatorKey), keyPrefix: simulatorKey.slice(0, 8), revokedAt: null }
+      await tx.insert(gateways).values({ siteId: site!.id, name: DEMO_GATEWAY, ...keyFields })
+        .onConflictDoUpdate({ target: [gateways.siteId, gateways.name], set: keyFields })
     }
   })
 }

@@ -1,4 +1,4 @@
-// The catcher's two pages: an inbox and one message. Every value is escaped: mail content is
+// The local mailbox's two pages: an inbox and one message. Every value is escaped: mail content is
 // untrusted, and HTML bodies are shown only inside a sandboxed frame with scripts off.
 import type { CaughtMessage } from './mailStore'
 

@@ -1,4 +1,4 @@
-// Messages the catcher has received, kept in memory and appended to a JSON-lines file so they
+// Messages the local mailbox has received, kept in memory and appended to a JSON-lines file so they
 // survive a restart of the demo.
 import { appendFile, mkdir, readFile, writeFile } from 'node:fs/promises'
 import { join } from 'node:path'

@@ -4,30 +4,30 @@ import { join } from 'node:path'
 import nodemailer from 'nodemailer'
 import type Mail from 'nodemailer/lib/mailer'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { startMailCatcher, type RunningMailCatcher } from '../../../simulators/mailCatcher'
+import { startLocalMailbox, type RunningLocalMailbox } from '../../../simulators/localMailbox'
 import type { CaughtMessage } from '../../../simulators/mail/mailStore'
 
-let catcher: RunningMailCatcher
+let mailbox: RunningLocalMailbox
 let dir: string
 let base: string
 
 beforeAll(async () => {
   dir = await mkdtemp(join(tmpdir(), 'brinkline-mail-'))
-  catcher = await startMailCatcher({ smtpPort: 0, httpPort: 0, dir })
-  base = `http://127.0.0.1:${catcher.httpPort}`
+  mailbox = await startLocalMailbox({ smtpPort: 0, httpPort: 0, dir })
+  base = `http://127.0.0.1:${mailbox.httpPort}`
 })
 
 afterAll(async () => {
-  await catcher.close()
+  await mailbox.close()
   await rm(dir, { recursive: true, force: true })
 })
 
 function send(message: Mail.Options) {
-  const transport = nodemailer.createTransport({ host: '127.0.0.1', port: catcher.smtpPort, secure: false, ignoreTLS: true })
+  const transport = nodemailer.createTransport({ host: '127.0.0.1', port: mailbox.smtpPort, secure: false, ignoreTLS: true })
   return transport.sendMail({ from: 'Brinkline <alerts@fenwick.example>', ...message })
 }
 
-describe('mail catcher', () => {
+describe('local mailbox', () => {
   it('stores a sent message and serves it as JSON, newest first', async () => {
     await fetch(`${base}/api/messages`, { method: 'DELETE' })
     await send({ to: 'ops@fenwick.example', subject: 'first', text: 'one' })
@@ -48,7 +48,7 @@ describe('mail catcher', () => {
   })
 
   it('accepts a sender that logs in, since auth is optional', async () => {
-    const transport = nodemailer.createTransport({ host: '127.0.0.1', port: catcher.smtpPort, secure: false, ignoreTLS: true, auth: { user: 'app', pass: 'anything' } })
+    const transport = nodemailer.createTransport({ host: '127.0.0.1', port: mailbox.smtpPort, secure: false, ignoreTLS: true, auth: { user: 'app', pass: 'anything' } })
     await transport.sendMail({ from: 'app@fenwick.example', to: 'ops@fenwick.example', subject: 'with login', text: 'x' })
     const list = await (await fetch(`${base}/api/messages`)).json() as CaughtMessage[]
     expect(list[0]!.subject).toBe('with login')

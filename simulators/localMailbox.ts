@@ -1,6 +1,6 @@
-// Local mail catcher for the demo and tests: an SMTP server on loopback that accepts every
+// Local local mailbox for the demo and tests: an SMTP server on loopback that accepts every
 // message (no auth, no TLS), stores it, and shows it over HTTP.
-//   npx tsx simulators/mailCatcher.ts   (MAIL_SMTP_PORT=1025, MAIL_HTTP_PORT=1080, MAIL_DIR=.data/mail)
+//   npx tsx simulators/localMailbox.ts   (MAIL_SMTP_PORT=1025, MAIL_HTTP_PORT=1080, MAIL_DIR=.data/mail)
 import { randomUUID } from 'node:crypto'
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http'
 import type { AddressInfo } from 'node:net'
@@ -10,7 +10,7 @@ import { SMTPServer } from 'smtp-server'
 import { inboxPage, messagePage } from './mail/mailPages'
 import { MailStore } from './mail/mailStore'
 
-export interface MailCatcherOptions {
+export interface LocalMailboxOptions {
   host?: string
   /** 0 picks a free port. */
   smtpPort: number
@@ -18,7 +18,7 @@ export interface MailCatcherOptions {
   dir: string
 }
 
-export interface RunningMailCatcher {
+export interface RunningLocalMailbox {
   smtpPort: number
   httpPort: number
   store: MailStore
@@ -31,7 +31,7 @@ function addresses(header: AddressObject | AddressObject[] | undefined): string[
   return (Array.isArray(header) ? header : [header]).flatMap(h => h.value.map(v => v.address ?? v.name))
 }
 
-export async function startMailCatcher(options: MailCatcherOptions): Promise<RunningMailCatcher> {
+export async function startLocalMailbox(options: LocalMailboxOptions): Promise<RunningLocalMailbox> {
   const host = options.host ?? '127.0.0.1'
   const store = new MailStore(options.dir)
   await store.load()
@@ -72,7 +72,7 @@ export async function startMailCatcher(options: MailCatcherOptions): Promise<Run
 
   const http = createServer((req, res) => {
     handleHttp(store, req, res).catch((error) => {
-      console.error('[mailCatcher]', error)
+      console.error('[localMailbox]', error)
       if (!res.headersSent) send(res, 500, 'text/plain', 'Internal error')
     })
   })
@@ -125,13 +125,13 @@ async function handleHttp(store: MailStore, req: IncomingMessage, res: ServerRes
 }
 
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
-  const catcher = await startMailCatcher({
+  const mailbox = await startLocalMailbox({
     smtpPort: Number(process.env.MAIL_SMTP_PORT ?? 1025),
     httpPort: Number(process.env.MAIL_HTTP_PORT ?? 1080),
     dir: process.env.MAIL_DIR ?? '.data/mail',
   })
-  console.log(`mail catcher: SMTP 127.0.0.1:${catcher.smtpPort}, inbox http://127.0.0.1:${catcher.httpPort}/`)
-  const shutdown = () => { void catcher.close().then(() => process.exit(0)) }
+  console.log(`local mailbox: SMTP 127.0.0.1:${mailbox.smtpPort}, inbox http://127.0.0.1:${mailbox.httpPort}/`)
+  const shutdown = () => { void mailbox.close().then(() => process.exit(0)) }
   process.once('SIGINT', shutdown)
   process.once('SIGTERM', shutdown)
 }

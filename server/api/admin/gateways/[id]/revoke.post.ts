@@ -1,0 +1,12 @@
+import { idParamsSchema } from '#shared/schemas/gateway'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, 'admin')
+  const { id } = await validParams(event, idParamsSchema)
+  return useDb().transaction(async (tx) => {
+    const gateway = await revokeGateway(tx, id)
+    if (!gateway) throw createError({ statusCode: 404, message: `Gateway ${id} not found or already revoked` })
+    await writeAudit(tx, { userId: user.id, action: 'gateway.revoke', target: gateway.name, detail: { id }, address: clientAddress(event) })
+    return { id, revokedAt: gateway.revokedAt }
+  })
+})

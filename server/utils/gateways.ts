@@ -1,0 +1,48 @@
+import { createHash, randomBytes } from 'node:crypto'
+import { and, asc, eq, isNull, sql } from 'drizzle-orm'
+import { gateways, sites } from '../db/schema'
+
+export const hashIngestKey = (key: string) => createHash('sha256').update(key).digest('hex')
+
+/** A new random ingest key: 256 bits, URL-safe, prefixed so it is recognisable in a config file. */
+export const newIngestKey = () => `bk_${randomBytes(32).toString('base64url')}`
+
+export type Gateway = typeof gateways.$inferSelect
+
+/** The gateway holding this key, unless the key is unknown or revoked. */
+export async function findGatewayByKey(db: Db, key: string): Promise<Gateway | undefined> {
+  const [row] = await db.select().from(gateways)
+    .where(and(eq(gateways.keyHash, hashIngestKey(key)), isNull(gateways.revokedAt)))
+  return row
+}
+
+/** Creates a gateway and returns its key, which is never stored and cannot be shown again. */
+export async function createGateway(db: DbExecutor, input: { siteId: number, name: string, key?: string }) {
+  const key = input.key ?? newIngestKey()
+  const [row] = await db.insert(gateways).values({
+    siteId: input.siteId, name: input.name, keyHash: hashIngestKey(key), keyPrefix: key.slice(0, 8),
+  }).returning()
+  return { gateway: row!, key }
+}
+
+export async function revokeGateway(db: DbExecutor, id: number) {
+  const [row] = await db.update(gateways).set({ revokedAt: new Date() })
+    .where(and(eq(gateways.id, id), isNull(gateways.revokedAt))).returning()
+  return row
+}
+
+export function listGateways(db: Db) {
+  return db.select({
+    id: gateways.id, name: gateways.name, siteId: gateways.siteId, siteName: sites.name, keyPrefix: gateways.keyPrefix,
+    createdAt: gateways.createdAt, revokedAt: gateways.revokedAt, lastContactAt: gateways.lastContactAt,
+    acceptedCount: gateways.acceptedCount, duplicateCount: gateways.duplicateCount, rejectedCount: gateways.rejectedCount,
+    failedBatchCount: gateways.failedBatchCount, lastError: gateways.lastError,
+  }).from(gateways).innerJoin(sites, eq(sites.id, gateways.siteId)).orderBy(asc(gateways.name))
+}
+
+/** Counts a refused batch against the gateway so admins can see a misconfigured source. */
+export async function recordFailedBatch(db: Db, gatewayId: number, message: string) {
+  await db.update(gateways).set({
+    lastContactAt: new Date(), failedBatchCount: sql`${gateways.failedBatchCount} + 1`, lastError: message.slice(0, 500),
+  }).where(eq(gateways.id, gatewayId))
+}
