@@ -34,7 +34,7 @@ export interface SeriesOptions {
  */
 export function indicatorSeries(times: ArrayLike<number>, residuals: ArrayLike<number>, options: SeriesOptions): IndicatorSeries {
   const rows: { time: number, values: Indicators }[] = []
-  forEachFullWindow(times, residuals, options, (window, time) => rows.push({ time, values: window.indicators() }))
+  forEachFullWindow(times, residuals, options, (values, time) => rows.push({ time, values }))
   const column = (pick: (values: Indicators) => number): Float64Array => Float64Array.from(rows, row => pick(row.values))
   return {
     time: Float64Array.from(rows, row => row.time),
@@ -49,10 +49,10 @@ export function indicatorSeries(times: ArrayLike<number>, residuals: ArrayLike<n
   }
 }
 
-/** Calls `visit` with the rolling window each time it is full, every `step` samples. */
+/** Calls `visit` with the rolling window's indicators each time it is full, every `step` samples. */
 export function forEachFullWindow(
   times: ArrayLike<number>, residuals: ArrayLike<number>, options: SeriesOptions,
-  visit: (window: RollingWindow, time: number) => void,
+  visit: (indicators: Indicators, time: number) => void,
 ): void {
   const step = options.step ?? 1
   if (!(Number.isInteger(step) && step >= 1)) throw new RangeError(`step must be a positive integer, got ${step}`)
@@ -67,7 +67,7 @@ export function forEachFullWindow(
       : times[i]! - start >= options.window.seconds
     if (!full) continue
     if (++sinceLast >= step) {
-      visit(window, times[i]!)
+      visit(window.indicators(), times[i]!)
       sinceLast = 0
     }
   }

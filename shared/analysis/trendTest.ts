@@ -3,6 +3,7 @@
 // steps 4–5). τ's own normal p-value is not used: overlapping windows make the indicator series
 // strongly autocorrelated and that p-value far too small.
 import { forEachFullWindow } from './indicatorSeries'
+import { forEachCountWindow } from './windowTracks'
 import type { SeriesOptions } from './indicatorSeries'
 import { trendTau } from './kendall'
 import type { Rng } from './random'
@@ -62,10 +63,13 @@ export function surrogateTrendTest(
 /** Kendall τ against time of each requested indicator's rolling series. */
 export function indicatorTaus(times: ArrayLike<number>, residuals: ArrayLike<number>, options: TrendTestOptions): number[] {
   const tracks = options.indicators.map(() => [] as number[])
-  forEachFullWindow(times, residuals, { window: options.window, step: options.step }, (window) => {
-    const values = window.indicators()
+  const record = (values: Indicators): void => {
     options.indicators.forEach((name, k) => tracks[k]!.push(pick(values, name)))
-  })
+  }
+  // Count windows take the prefix-sum path (a window every `step` samples, the same windows the
+  // rolling path would visit); duration windows need the rolling window's time bookkeeping.
+  if (options.window.kind === 'count') forEachCountWindow(times, residuals, options.window.samples, options.step ?? 1, record)
+  else forEachFullWindow(times, residuals, { window: options.window, step: options.step }, record)
   return tracks.map(track => (track.length >= 2 ? trendTau(track) : Number.NaN))
 }
 

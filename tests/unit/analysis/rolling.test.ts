@@ -5,6 +5,7 @@ import { accurateMean, centredSums } from '#shared/analysis/moments'
 import { createRng } from '#shared/analysis/random'
 import { RollingWindow } from '#shared/analysis/rolling'
 import { trendTau } from '#shared/analysis/kendall'
+import { forEachCountWindow } from '#shared/analysis/windowTracks'
 import type { Indicators } from '#shared/analysis/types'
 
 const FIELDS = ['variance', 'sd', 'ar1', 'skewness', 'kurtosis'] as const
@@ -74,5 +75,23 @@ describe('rolling-window toy series (SCIENCE.md B4, computed values [C])', () =>
   })
   it('marks every recovery rate of these 5-sample windows as too short instead of NaN', () => {
     expect(series.recoveryStatus).toEqual(new Array(6).fill('too short'))
+  })
+})
+
+describe('prefix-sum window path (used by the surrogate test) equals the rolling window', () => {
+  it('gives the same indicators every 7 samples of a 5,000-sample stream to 1e-9 relative', () => {
+    // The path sums about the series mean, so it is meant for residuals: remove the slow wave.
+    const { times, values: raw } = stream(4, 5000, 300, false)
+    const values = Float64Array.from(raw, (v, i) => v - 50 * Math.sin(i / 3000))
+    const rolling = indicatorSeries(times, values, { window: { kind: 'count', samples: 360 }, step: 7 })
+    let k = 0
+    forEachCountWindow(times, values, 360, 7, (indicators, newest) => {
+      expect(times[newest]).toBe(rolling.time[k])
+      for (const field of ['variance', 'ar1', 'skewness', 'kurtosis'] as const) {
+        expect(Math.abs(indicators[field] - rolling[field][k]!) / Math.abs(rolling[field][k]!)).toBeLessThan(1e-9)
+      }
+      k++
+    })
+    expect(k).toBe(rolling.time.length)
   })
 })
