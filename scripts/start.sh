@@ -19,7 +19,12 @@ cleanup() {
   trap - INT TERM EXIT
   echo; echo "» stopping…"
   for pid in "${PIDS[@]}"; do kill "$pid" 2>/dev/null || true; done
-  wait 2>/dev/null || true
+  # Give each a few seconds to flush (the simulators try to deliver what they buffered).
+  for _ in $(seq 1 20); do
+    alive=0; for pid in "${PIDS[@]}"; do kill -0 "$pid" 2>/dev/null && alive=1; done
+    [ $alive = 0 ] && break; sleep 0.5
+  done
+  for pid in "${PIDS[@]}"; do kill -9 "$pid" 2>/dev/null || true; done
   if [ "$PG_STATE" = STARTED ]; then scripts/pg.sh stop; echo "» PostgreSQL stopped"; fi
 }
 trap cleanup INT TERM EXIT
@@ -43,7 +48,7 @@ export BRINKLINE_SEED_DEMO=1
 ensure_build
 
 if [ -f simulators/localMailbox.ts ]; then
-  MAIL_DIR="$BRINKLINE_STATE_DIR/mail" npx tsx simulators/localMailbox.ts > "$BRINKLINE_STATE_DIR/mail-catcher.log" 2>&1 &
+  MAIL_DIR="$BRINKLINE_STATE_DIR/mail" node --import tsx simulators/localMailbox.ts > "$BRINKLINE_STATE_DIR/mail-catcher.log" 2>&1 &
   PIDS+=($!)
 fi
 
@@ -52,7 +57,7 @@ PIDS+=($!)
 wait_for_health "$URL" 240 || { tail -30 "$BRINKLINE_STATE_DIR/server.log"; echo "server did not become healthy" >&2; exit 1; }
 
 if [ -f simulators/run.ts ]; then
-  npx tsx simulators/run.ts --unit all --url "$URL" --key "$BRINKLINE_SIM_KEY" --backfill-hours "${SIM_BACKFILL_HOURS:-6}" \
+  node --import tsx simulators/run.ts --unit all --url "$URL" --key "$BRINKLINE_SIM_KEY" --backfill-hours "${SIM_BACKFILL_HOURS:-6}" \
     > "$BRINKLINE_STATE_DIR/simulators.log" 2>&1 &
   PIDS+=($!)
 fi
