@@ -1,0 +1,58 @@
+import { sql } from 'drizzle-orm'
+import { pgTable, serial, bigserial, bigint, integer, text, timestamp, boolean, index, uniqueIndex, check } from 'drizzle-orm/pg-core'
+import { PRIORITIES } from '../../../shared/alarms/vocabulary'
+import { oneOf } from './checks'
+import { sites, units } from './plant'
+import { roleEnum } from './users'
+
+// Who receives which alarm mail: an address or everyone with a role, for a site or one unit,
+// from a minimum priority up.
+export const notificationRoutes = pgTable('notification_routes', {
+  id: serial('id').primaryKey(),
+  siteId: integer('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
+  unitId: integer('unit_id').references(() => units.id, { onDelete: 'cascade' }),
+  email: text('email'),
+  role: roleEnum('role'),
+  minPriority: text('min_priority').notNull(),
+  enabled: boolean('enabled').notNull().default(true),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+}, t => [
+  check('notification_routes_recipient', sql`(${t.email} is null) <> (${t.role} is null)`),
+  check('notification_routes_priority', oneOf(t.minPriority, PRIORITIES)),
+])
+
+// Mail to send, written in the same transaction as the alarm change that causes it. The sender
+// claims rows FOR UPDATE SKIP LOCKED; delivery is at least once (see server/utils/mailSender.ts).
+export const notificationOutbox = pgTable('notification_outbox', {
+  id: bigserial('id', { mode: 'number' }).primaryKey(),
+  kind: text('kind').notNull(),
+  siteId: integer('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
+  /** The alarm of a single message; a digest lists its alarms in alarm_ids. */
+  alarmId: bigint('alarm_id', { mode: 'number' }),
+  alarmIds: bigint('alarm_ids', { mode: 'number' }).array().notNull().default(sql`'{}'`),
+  recipients: text('recipients').array().notNull(),
+  /** Rendered when written; a digest is rendered when sent, so it lists every alarm it collected. */
+  subject: text('subject').notNull().default(''),
+  body: text('body').notNull().default(''),
+  status: text('status').notNull().default('pending'),
+  attempts: integer('attempts').notNull().default(0),
+  nextAttemptAt: timestamp('next_attempt_at', { withTimezone: true }).notNull().defaultNow(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  sentAt: timestamp('sent_at', { withTimezone: true }),
+  lastError: text('last_error'),
+}, t => [
+  check('notification_outbox_kind', oneOf(t.kind, ['alarm', 'digest'])),
+  check('notification_outbox_status', oneOf(t.status, ['pending', 'sent', 'failed'])),
+  index('notification_outbox_due').on(t.nextAttemptAt).where(sql`${t.status} = 'pending'`),
+  // One digest collects per site at a time.
+  uniqueIndex('notification_outbox_open_digest').on(t.siteId).where(sql`${t.kind} = 'digest' and ${t.status} = 'pending'`),
+])
+
+export const outboxAttempts = pgTable('outbox_attempts', {
+  id: bigserial('id', { mode: 'number' }).primaryKey(),
+  outboxId: bigint('outbox_id', { mode: 'number' }).notNull().references(() => notificationOutbox.id, { onDelete: 'cascade' }),
+  at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+  ok: boolean('ok').notNull(),
+  error: text('error'),
+  durationMs: integer('duration_ms').notNull(),
+}, t => [index('outbox_attempts_outbox').on(t.outboxId)])

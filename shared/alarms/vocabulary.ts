@@ -1,0 +1,65 @@
+// The closed sets of the alarm system, shared by the database schema, the zod contracts, the
+// pipeline and the screens (names from DESIGN.md §3 and ISA-18.2 / IEC 62682 terms).
+
+/** Most urgent first: the order the active list sorts by. */
+export const PRIORITIES = ['urgent', 'high', 'medium', 'low'] as const
+export type Priority = typeof PRIORITIES[number]
+
+/** 0 = most urgent, for sorting and "at least this priority" comparisons. */
+export const priorityRank = (p: Priority): number => PRIORITIES.indexOf(p)
+
+/**
+ * `alarm`: an operator must act. `alert`: an advisory notification below the alarm level
+ * (ISA-18.2-2016), shown and counted separately so early warnings never spoil alarm-rate figures.
+ */
+export const ALARM_CLASSES = ['alarm', 'alert'] as const
+export type AlarmClass = typeof ALARM_CLASSES[number]
+
+/** ISA-18.2 alarm states A–D and F–H (SCIENCE.md §D); the optional latched state E is not used. */
+export const ALARM_STATES = [
+  'normal', 'unacknowledged', 'acknowledged', 'rtn_unacknowledged', 'shelved', 'suppressed', 'out_of_service',
+] as const
+export type AlarmState = typeof ALARM_STATES[number]
+
+export const ALARM_STATE_LABELS: Record<AlarmState, string> = {
+  normal: 'normal',
+  unacknowledged: 'unacknowledged',
+  acknowledged: 'acknowledged',
+  rtn_unacknowledged: 'returned to normal, unacknowledged',
+  shelved: 'shelved',
+  suppressed: 'suppressed by design',
+  out_of_service: 'out of service',
+}
+
+/** How a rule's alarm point is kept in or out of annunciation by configuration. */
+export const RULE_MODES = ['in_service', 'suppressed', 'out_of_service'] as const
+export type RuleMode = typeof RULE_MODES[number]
+
+/**
+ * What a rule watches. `value` is the raw sample (plain high/low limits); the indicators are
+ * those of the latest window; `p_ar1` / `p_variance` the surrogate p-values of their trends;
+ * `fold_horizon` the projected seconds to the fold (no fold in view counts as infinitely far);
+ * `early_warning` is 1 while the engine's decision is "slowing down", else 0. A unit rule
+ * watches the unit's slow-mode recovery rate.
+ */
+export const TAG_MEASURES = [
+  'value', 'variance', 'std', 'cv', 'ar1', 'recovery_rate', 'skewness', 'kurtosis',
+  'p_ar1', 'p_variance', 'fold_horizon', 'early_warning',
+] as const
+export const UNIT_MEASURES = ['recovery_rate'] as const
+export type TagMeasure = typeof TAG_MEASURES[number]
+export type RuleMeasure = TagMeasure
+
+export const COMPARISONS = ['above', 'below'] as const
+export type Comparison = typeof COMPARISONS[number]
+
+export const TARGET_KINDS = ['tag', 'unit'] as const
+export type TargetKind = typeof TARGET_KINDS[number]
+
+/** Tile status of a tag (DESIGN.md §3), most severe first after the data problems. */
+export const TAG_STATUSES = ['steady', 'watch', 'warning', 'alarm', 'no data', 'bad quality'] as const
+export type TagStatus = typeof TAG_STATUSES[number]
+
+/** The caution every alarm message and e-mail carries (DESIGN.md §1). */
+export const ADVISORY_CAUTION = 'Advisory only: Brinkline never writes to a control system. '
+  + 'Follow the plant\'s operating procedures and the instructions of the responsible authority.'
