@@ -18,7 +18,17 @@ source_hash() {
     -type f -print0 2>/dev/null | sort -z | xargs -0 sha256sum | sha256sum | cut -d' ' -f1
 }
 
+# Several runs on one checkout (tests, benchmarks, start) share .nuxt/ and .output/: one build
+# or test run at a time holds this lock, so none reads a build another is replacing.
+take_build_lock() {
+  [ -n "${BRINKLINE_BUILD_LOCKED:-}" ] && return
+  exec 9>"${TMPDIR:-/tmp}/brinkline-build-$(echo "$PWD" | sha256sum | head -c 12).lock"
+  flock 9 || true
+  export BRINKLINE_BUILD_LOCKED=1
+}
+
 ensure_build() {
+  take_build_lock
   local want; want=$(source_hash)
   if [ ! -f .output/.brinkline-build-hash ] || [ "$(cat .output/.brinkline-build-hash)" != "$want" ]; then
     echo "» building (sources changed)…"

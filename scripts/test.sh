@@ -6,6 +6,8 @@ cd "$(dirname "$0")/.."
 source scripts/lib.sh
 
 ensure_node_modules
+# Held for the whole run: another run must not rebuild .output under our servers.
+take_build_lock
 
 if [ ! -x /usr/bin/chromium ]; then
   if [ "$(id -u)" = 0 ]; then
