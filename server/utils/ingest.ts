@@ -1,3 +1,4 @@
+import type { TransactionSql } from 'postgres'
 import type { ValidSample } from '#shared/utils/sampleBatch'
 
 // Arrays go over the wire as PostgreSQL array literals ('{1,2,3}') cast on the server side: one
@@ -13,39 +14,53 @@ export async function tagIdsByCode(db: Db, siteId: number, codes: string[]): Pro
 }
 
 /**
- * Stores a validated batch and the gateway's counters in one transaction: all or nothing.
- * One INSERT … SELECT FROM unnest(arrays) per batch (not a row per query); ON CONFLICT DO NOTHING
- * on the (tag_id, time) key makes a retried batch harmless. Returns how many rows were new.
+ * Inserts validated samples with one INSERT … SELECT FROM unnest(arrays) (not a row per query);
+ * ON CONFLICT DO NOTHING on the (tag_id, time) key makes a retried batch harmless. Returns how
+ * many rows were new. Runs inside the caller's transaction.
  */
+async function insertSamples(tx: TransactionSql, samples: ValidSample[], tagIdOf: Map<string, number>): Promise<number> {
+  if (samples.length === 0) return 0
+  const tagIds = new Int32Array(samples.length)
+  const times: string[] = new Array(samples.length)
+  const values = new Float64Array(samples.length)
+  const qualities = new Int16Array(samples.length)
+  samples.forEach((s, i) => {
+    tagIds[i] = tagIdOf.get(s.tag)!
+    times[i] = new Date(s.timeMs).toISOString()
+    values[i] = s.value
+    qualities[i] = s.quality
+  })
+  const inserted = await tx`
+    insert into samples (tag_id, time, value, quality)
+    select * from unnest(${arrayLiteral(tagIds)}::int4[], ${arrayLiteral(times)}::timestamptz[],
+      ${arrayLiteral(values)}::float8[], ${arrayLiteral(qualities)}::int2[])
+    on conflict do nothing`
+  return inserted.count
+}
+
+/** Stores a gateway's validated batch and the gateway's counters in one transaction: all or nothing. */
 export async function storeSamples(db: Db, input: {
   gatewayId: number
   samples: ValidSample[]
   tagIds: Map<string, number>
   rejected: number
 }): Promise<{ accepted: number, duplicates: number }> {
-  const { samples } = input
-  const tagIds = new Int32Array(samples.length)
-  const times: string[] = new Array(samples.length)
-  const values = new Float64Array(samples.length)
-  const qualities = new Int16Array(samples.length)
-  samples.forEach((s, i) => {
-    tagIds[i] = input.tagIds.get(s.tag)!
-    times[i] = new Date(s.timeMs).toISOString()
-    values[i] = s.value
-    qualities[i] = s.quality
-  })
   return db.$sql.begin(async (tx) => {
-    const inserted = samples.length === 0 ? { count: 0 } : await tx`
-      insert into samples (tag_id, time, value, quality)
-      select * from unnest(${arrayLiteral(tagIds)}::int4[], ${arrayLiteral(times)}::timestamptz[],
-        ${arrayLiteral(values)}::float8[], ${arrayLiteral(qualities)}::int2[])
-      on conflict do nothing`
-    const accepted = inserted.count
-    const duplicates = samples.length - accepted
+    const accepted = await insertSamples(tx, input.samples, input.tagIds)
+    const duplicates = input.samples.length - accepted
     await tx`
       update gateways set last_contact_at = now(), accepted_count = accepted_count + ${accepted},
         duplicate_count = duplicate_count + ${duplicates}, rejected_count = rejected_count + ${input.rejected}
       where id = ${input.gatewayId}`
     return { accepted, duplicates }
   })
+}
+
+/**
+ * Stores one batch of an uploaded file in its own transaction. A file of a million rows is many
+ * batches, not one transaction; a re-run after a failure is safe because the insert is idempotent.
+ */
+export async function storeUploadedSamples(db: Db, samples: ValidSample[], tagIds: Map<string, number>) {
+  const accepted = await db.$sql.begin(tx => insertSamples(tx, samples, tagIds))
+  return { accepted, duplicates: samples.length - accepted }
 }

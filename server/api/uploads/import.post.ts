@@ -1,0 +1,38 @@
+import { Readable } from 'node:stream'
+import { uploadImportQuerySchema } from '#shared/schemas/upload'
+import { planColumns } from '#shared/utils/csvSamples'
+
+// Body: the CSV file itself, streamed (never buffered). Answer: NDJSON lines, progress then a
+// summary, so a million-row file shows how far it has got.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, 'engineer')
+  const query = await validQuery(event, uploadImportQuerySchema)
+  const db = useDb()
+  const site = await findSite(db, query.siteId)
+  if (!site) throw createError({ statusCode: 400, message: `siteId: no site with id ${query.siteId}` })
+  const source = openCsvSource(event.node.req, query.delimiter)
+  const refuse = (message: string): never => {
+    source.discard()
+    throw createError({ statusCode: 400, message })
+  }
+  const header = (await source.next())?.record.map(h => h.trim()) ?? refuse('body: the file is empty (no header line)')
+  const plan = planColumns(header, query)
+  if ('message' in plan) return refuse(`${plan.field}: ${plan.message}`)
+  const timeZone = query.timeZone ?? site.timeZone
+  const address = clientAddress(event)
+
+  async function* ndjson() {
+    for await (const line of importCsvRecords(db, { source, plan, siteId: site!.id, timeZone, dryRun: query.dryRun })) {
+      if (line.type !== 'progress' && !query.dryRun) {
+        const { rejections: _listed, ...counts } = line.summary
+        await writeAudit(db, {
+          userId: user.id, action: 'samples.upload', target: `site:${site!.code}`, address,
+          detail: { ...counts, format: query.format, timeZone, ...(line.type === 'error' ? { error: line.message } : {}) },
+        }).catch(err => console.error('[uploads:import] audit', err))
+      }
+      yield `${JSON.stringify(line)}\n`
+    }
+  }
+  setResponseHeaders(event, { 'content-type': 'application/x-ndjson; charset=utf-8', 'cache-control': 'no-store' })
+  return sendStream(event, Readable.from(ndjson()))
+})

@@ -1,0 +1,41 @@
+import type { Readable } from 'node:stream'
+import { parse } from 'csv-parse'
+import { MAX_RECORD_CHARS } from '#shared/schemas/upload'
+import type { LineRejection } from '#shared/utils/csvSamples'
+
+export interface CsvRecord { record: string[], info: { lines: number } }
+
+/**
+ * A CSV byte stream (the request body) as records, read one at a time so the file is never held
+ * whole: while the consumer awaits a database write, csv-parse's buffer fills, pipe() stops
+ * reading the socket, and TCP slows the sender. Records csv-parse cannot read are skipped and
+ * collected in `unreadable` with their line.
+ */
+export function openCsvSource(body: Readable, delimiter = ',') {
+  const parser = parse({
+    delimiter, info: true, bom: true, relax_column_count: true, skip_empty_lines: true,
+    skip_records_with_error: true, max_record_size: MAX_RECORD_CHARS,
+  })
+  const unreadable: LineRejection[] = []
+  parser.on('skip', (err: Error & { lines?: number }) =>
+    unreadable.push({ line: err.lines ?? 0, column: '', value: '', reason: `unreadable CSV: ${err.message}` }))
+  // pipe(), not pipeline(): on an early answer the body must be drained, not the socket destroyed.
+  const fail = (err: Error) => parser.destroy(err)
+  body.on('error', fail).on('aborted', () => fail(new Error('the upload was interrupted')))
+  body.pipe(parser)
+  const records = parser[Symbol.asyncIterator]() as AsyncIterator<CsvRecord>
+  return {
+    unreadable,
+    next: async (): Promise<CsvRecord | undefined> => {
+      const r = await records.next()
+      return r.done ? undefined : r.value
+    },
+    /** Stops parsing and reads the rest of the body into nothing, so the client gets our answer. */
+    discard() {
+      body.unpipe(parser)
+      body.resume()
+      parser.destroy()
+    },
+  }
+}
+export type CsvSource = ReturnType<typeof openCsvSource>

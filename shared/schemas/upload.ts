@@ -1,0 +1,43 @@
+import { z } from 'zod'
+import { CSV_DELIMITERS } from '../utils/csvLayout'
+import { isTimeZone } from '../utils/zonedTime'
+
+/** Preview body: the start of the file, cut by the browser (File.slice). */
+export const PREVIEW_MAX_BYTES = 256 * 1024
+export const PREVIEW_ROWS = 20
+/** Samples validated and written together; each batch is its own transaction. */
+export const UPLOAD_BATCH_SAMPLES = 5_000
+/** Rejections listed one by one; the count goes on past this. */
+export const MAX_LISTED_REJECTIONS = 1_000
+/** Longest accepted CSV record (characters): one runaway quoted field can't fill the memory. */
+export const MAX_RECORD_CHARS = 64 * 1024
+
+const siteId = z.coerce.number({ invalid_type_error: 'must be a site id' }).int().positive('must be a site id')
+const delimiter = z.enum(CSV_DELIMITERS, { errorMap: () => ({ message: 'must be one of , ; | or a tab' }) }).optional()
+const column = z.string().trim().min(1, 'must name a column of the header').max(200)
+
+export const uploadPreviewQuerySchema = z.object({
+  siteId,
+  delimiter,
+})
+
+export const uploadImportQuerySchema = z.object({
+  siteId,
+  delimiter,
+  format: z.enum(['long', 'wide'], { errorMap: () => ({ message: 'must be long or wide' }) }),
+  timeColumn: column,
+  tagColumn: column.optional(),
+  valueColumn: column.optional(),
+  qualityColumn: column.optional(),
+  // Wide format: comma-separated tag columns; all but the time column when left out.
+  tagColumns: z.string().trim().optional()
+    .transform(s => (s ? s.split(',').map(c => c.trim()).filter(Boolean) : undefined)),
+  timeZone: z.string().trim().refine(isTimeZone, 'must be an IANA time-zone name such as Europe/London').optional(),
+  dryRun: z.enum(['0', '1', 'true', 'false'], { errorMap: () => ({ message: 'must be 1 or 0' }) }).optional()
+    .transform(v => v === '1' || v === 'true'),
+}).superRefine((q, ctx) => {
+  if (q.format !== 'long') return
+  for (const key of ['tagColumn', 'valueColumn'] as const)
+    if (!q[key]) ctx.addIssue({ code: 'custom', path: [key], message: 'is required for the long format' })
+})
+export type UploadImportQuery = z.infer<typeof uploadImportQuerySchema>

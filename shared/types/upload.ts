@@ -1,0 +1,28 @@
+import type { LineRejection } from '../utils/csvSamples'
+
+/** What an import (or dry run) reports when it ends, or how far it got when it failed. */
+export interface UploadSummary {
+  dryRun: boolean
+  /** Data rows read (header not counted). */
+  rowsRead: number
+  /** Samples that passed every check (stored + duplicates, or what a dry run would store). */
+  valid: number
+  stored: number
+  duplicates: number
+  /** Wide-format cells left blank: no reading for that tag at that time. */
+  blankCells: number
+  rejectedCount: number
+  /** The first MAX_LISTED_REJECTIONS, in line order. */
+  rejections: LineRejection[]
+  /** Valid samples per tag code. */
+  tags: Record<string, number>
+  /** Batches written; each one its own transaction. */
+  batchesCommitted: number
+  durationMs: number
+}
+
+/** One line of the import's NDJSON response. */
+export type UploadEvent =
+  | { type: 'progress', rowsRead: number, stored: number, duplicates: number, rejectedCount: number }
+  | { type: 'summary', summary: UploadSummary }
+  | { type: 'error', message: string, summary: UploadSummary }
