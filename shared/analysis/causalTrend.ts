@@ -15,6 +15,9 @@ export class CausalTrendFilter {
   private suy = 0
   private lastTime = Number.NaN
   private yShift = Number.NaN
+  // Regular sampling repeats the same step, so its decay factor is computed once.
+  private lastStep = Number.NaN
+  private lastDecay = 1
 
   constructor(private readonly bandwidth: number) {
     if (!(bandwidth > 0)) throw new RangeError(`trend bandwidth must be positive, got ${bandwidth}`)
@@ -38,7 +41,11 @@ export class CausalTrendFilter {
 
   private moveOriginForward(step: number): void {
     if (step === 0) return
-    const decay = Math.exp(-step / this.bandwidth)
+    if (step !== this.lastStep) {
+      this.lastStep = step
+      this.lastDecay = Math.exp(-step / this.bandwidth)
+    }
+    const decay = this.lastDecay
     // u → u − step for every stored sample, then every weight is multiplied by the decay.
     this.suu = decay * (this.suu - 2 * step * this.su + step * step * this.s0)
     this.suy = decay * (this.suy - step * this.sy)

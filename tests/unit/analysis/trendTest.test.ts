@@ -15,7 +15,7 @@ describe('surrogate trend test rejects trend-free red noise at its nominal rate'
     const series = 200
     let rejections = 0
     for (let s = 0; s < series; s++) {
-      const { times, values } = simulateOu({ samples: 200, dt: 1, k: 0.2, sigma: 1 }, rng)
+      const { times, values } = simulateOu({ samples: 256, dt: 1, k: 0.2, sigma: 1 }, rng)
       const result = surrogateTrendTest(times, values, {
         window: { kind: 'count', samples: 100 }, step: 2, surrogates: 99, kind, indicators: ['ar1'],
       }, rng)
@@ -26,7 +26,7 @@ describe('surrogate trend test rejects trend-free red noise at its nominal rate'
     expect(high).toBe(21)
     expect(rejections).toBeGreaterThanOrEqual(low)
     expect(rejections).toBeLessThanOrEqual(high)
-  })
+  }, 30_000)
 
   // Power check: the same test must see a real loss of stability. k falls from 1 to 0.05 over the
   // record (φ = e^{−k} rises from 0.37 to 0.95), the situation the indicator is built for.
@@ -42,5 +42,5 @@ describe('surrogate trend test rejects trend-free red noise at its nominal rate'
       expect(result.ar1!.tau).toBeGreaterThan(0)
     }
     expect(rejections).toBeGreaterThanOrEqual(15)
-  })
+  }, 30_000)
 })
