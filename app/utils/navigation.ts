@@ -8,5 +8,6 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/units', label: 'Units', capability: 'view' },
   { to: '/tags', label: 'Tags', capability: 'view' },
   { to: '/admin/users', label: 'Users', capability: 'administer' },
+  { to: '/admin/gateways', label: 'Gateways', capability: 'administer' },
   { to: '/admin/audit', label: 'Audit log', capability: 'administer' },
 ]

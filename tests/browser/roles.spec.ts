@@ -12,7 +12,7 @@ const EXPECTED_NAV: Record<Role, string[]> = {
   operator: ['Overview', 'Units', 'Tags'],
   engineer: ['Overview', 'Units', 'Tags'],
   supervisor: ['Overview', 'Units', 'Tags'],
-  admin: ['Overview', 'Units', 'Tags', 'Users', 'Audit log'],
+  admin: ['Overview', 'Units', 'Tags', 'Users', 'Gateways', 'Audit log'],
 }
 
 let context: BrowserContext
