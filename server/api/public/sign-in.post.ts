@@ -5,7 +5,7 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   const address = clientAddress(event)
   if (await signInBlocked(db, email, address)) {
-    setResponseHeader(event, 'Retry-After', String(SIGN_IN_LIMITS.windowMinutes * 60))
+    setResponseHeader(event, 'Retry-After', SIGN_IN_LIMITS.windowMinutes * 60)
     throw createError({ statusCode: 429, message: `Too many failed sign-ins; try again in ${SIGN_IN_LIMITS.windowMinutes} minutes` })
   }
   const user = await findActiveUserByEmail(db, email)
