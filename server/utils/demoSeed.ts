@@ -34,6 +34,7 @@ export async function seedDemo(db: Db, password: string, hash: (p: string) => Pr
         samplePeriodS: t.samplePeriodSeconds, rangeLow: t.rangeLow, rangeHigh: t.rangeHigh, noiseFloor: t.noiseFloor,
       }))).onConflictDoNothing()
     }
+    await seedDemoAlarmRules(tx, site!.id)
     // The simulators' key comes from the start command's credentials file; follow it if remade.
     if (simulatorKey) {
       const keyFields = { keyHash: hashIngestKey(simulatorKey), keyPrefix: simulatorKey.slice(0, 8), revokedAt: null }

@@ -1,0 +1,8 @@
+import { alarmIdParamsSchema, shelveSchema } from '#shared/schemas/alarm'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireCapability(event, 'respond')
+  const { id } = await validParams(event, alarmIdParamsSchema)
+  const input = await validBody(event, shelveSchema)
+  return shelveAlarm(useDb(), id, input, changeContext(user.id)).catch((err) => { throw alarmHttpError(err) })
+})

@@ -1,0 +1,8 @@
+import { alarmIdParamsSchema, unshelveSchema } from '#shared/schemas/alarm'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireCapability(event, 'respond')
+  const { id } = await validParams(event, alarmIdParamsSchema)
+  const { comment } = await validBody(event, unshelveSchema)
+  return unshelveAlarm(useDb(), id, comment, changeContext(user.id)).catch((err) => { throw alarmHttpError(err) })
+})

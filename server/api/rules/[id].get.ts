@@ -1,0 +1,9 @@
+import { alarmIdParamsSchema } from '#shared/schemas/alarm'
+
+export default defineEventHandler(async (event) => {
+  await requireCapability(event, 'view')
+  const { id } = await validParams(event, alarmIdParamsSchema)
+  const rule = await getRule(useDb(), id)
+  if (!rule) throw createError({ statusCode: 404, message: `Rule ${id} not found` })
+  return rule
+})
