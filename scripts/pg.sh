@@ -55,14 +55,14 @@ ensure_datadir() {
   [ "$(id -u)" = 0 ] && chown postgres:postgres "$PGDATA"
   chmod 700 "$PGDATA"
   as_owner "$PGBIN/initdb" -D "$PGDATA" -U postgres --auth=trust --encoding=UTF8 --locale=C.UTF-8 >/dev/null \
-    || die "initdb failed for $PGDATA"
+    || die "initdb failed for $PGDATA (every parent directory must be readable by the server's user)"
 }
 
 start() {
   ensure_installed
-  ensure_datadir
-  if is_running; then echo ALREADY_RUNNING; return; fi
+  if [ -f "$PGDATA/PG_VERSION" ] && is_running; then echo ALREADY_RUNNING; return; fi
   port_in_use && die "port $PGPORT on 127.0.0.1 is already in use (set BRINKLINE_PGPORT to a free port)"
+  ensure_datadir
   as_owner "$PGBIN/pg_ctl" -D "$PGDATA" -w -t 60 -l "$PGDATA/server.log" \
     -o "-p $PGPORT -c listen_addresses=127.0.0.1 -k $PGDATA -c fsync=$FSYNC -c max_connections=200 -c shared_buffers=256MB" \
     start >/dev/null || die "PostgreSQL did not start; see $PGDATA/server.log"
