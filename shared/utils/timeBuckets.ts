@@ -1,0 +1,59 @@
+// Display downsampling: a chart a thousand pixels wide cannot show more than about a thousand
+// points, but min/max per bucket keep every spike visible (computation always uses raw samples).
+
+/** Equal time buckets over [from, to): bucket i covers [from + i·width, from + (i+1)·width). */
+export interface BucketGrid { from: number, to: number, count: number }
+
+export function bucketWidth(grid: BucketGrid): number {
+  return (grid.to - grid.from) / grid.count
+}
+
+/** The bucket a time falls in, or −1 outside the grid. */
+export function bucketOf(grid: BucketGrid, time: number): number {
+  if (!(time >= grid.from && time < grid.to)) return -1
+  return Math.min(grid.count - 1, Math.floor((time - grid.from) / bucketWidth(grid)))
+}
+
+export interface Buckets {
+  /** Each bucket's end time. */
+  time: Float64Array
+  /** Mean, smallest and largest value per bucket; NaN for an empty bucket. */
+  mean: Float64Array
+  min: Float64Array
+  max: Float64Array
+  /** Index of the bucket's newest sample in the input, −1 for an empty bucket. */
+  last: Int32Array
+}
+
+/** Summarises time-sorted samples into the grid's buckets; samples outside the grid are skipped. */
+export function bucketSamples(times: ArrayLike<number>, values: ArrayLike<number>, grid: BucketGrid): Buckets {
+  const { count } = grid
+  const width = bucketWidth(grid)
+  const sum = new Float64Array(count)
+  const n = new Int32Array(count)
+  const min = new Float64Array(count).fill(Number.NaN)
+  const max = new Float64Array(count).fill(Number.NaN)
+  const last = new Int32Array(count).fill(-1)
+  for (let i = 0; i < times.length; i++) {
+    const b = bucketOf(grid, times[i]!)
+    if (b < 0) continue
+    const v = values[i]!
+    sum[b]! += v
+    n[b]!++
+    if (!(v >= min[b]!)) min[b] = v
+    if (!(v <= max[b]!)) max[b] = v
+    last[b] = i
+  }
+  return {
+    time: Float64Array.from({ length: count }, (_, b) => grid.from + (b + 1) * width),
+    mean: Float64Array.from(sum, (s, b) => (n[b] ? s / n[b]! : Number.NaN)),
+    min,
+    max,
+    last,
+  }
+}
+
+/** JSON has no NaN: non-finite numbers travel as null. */
+export function toJsonNumbers(values: ArrayLike<number>): (number | null)[] {
+  return Array.from(values, v => (Number.isFinite(v) ? v : null))
+}
