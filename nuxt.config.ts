@@ -23,11 +23,19 @@ export default defineNuxtConfig({
     smtpUrl: '',
     mailFrom: 'Brinkline <brinkline@localhost>',
     publicUrl: 'http://127.0.0.1:3000',
+    // Scheduled pipeline ticks and mail sending, per instance (NUXT_PIPELINE_SCHEDULED=false …).
+    pipeline: { scheduled: true },
+    sender: { scheduled: true },
     session: { maxAge: 60 * 60 * 12 },
   },
   nitro: {
     preset: 'node-server',
     experimental: { tasks: true },
+    // Six-field cron (seconds first); fixed at build time, switched off at run time via runtimeConfig.
+    scheduledTasks: {
+      [process.env.NUXT_PIPELINE_CRON || '*/10 * * * * *']: ['indicators:refresh'],
+      [process.env.NUXT_SENDER_CRON || '*/5 * * * * *']: ['notifications:send'],
+    },
     hooks: {
       compiled(nitro) {
         cpSync(migrationsDir, `${nitro.options.output.serverDir}/drizzle`, { recursive: true })
