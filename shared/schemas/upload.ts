@@ -16,9 +16,14 @@ const siteId = z.coerce.number({ invalid_type_error: 'must be a site id' }).int(
 const delimiter = z.enum(CSV_DELIMITERS, { errorMap: () => ({ message: 'must be one of , ; | or a tab' }) }).optional()
 const column = z.string().trim().min(1, 'must name a column of the header').max(200)
 
+const flag = z.enum(['0', '1', 'true', 'false'], { errorMap: () => ({ message: 'must be 1 or 0' }) }).optional()
+  .transform(v => v === '1' || v === 'true')
+
 export const uploadPreviewQuerySchema = z.object({
   siteId,
   delimiter,
+  // 1 when the body is the whole file; otherwise its last line may be cut short and is dropped.
+  complete: flag,
 })
 
 export const uploadImportQuerySchema = z.object({
@@ -33,8 +38,7 @@ export const uploadImportQuerySchema = z.object({
   tagColumns: z.string().trim().optional()
     .transform(s => (s ? s.split(',').map(c => c.trim()).filter(Boolean) : undefined)),
   timeZone: z.string().trim().refine(isTimeZone, 'must be an IANA time-zone name such as Europe/London').optional(),
-  dryRun: z.enum(['0', '1', 'true', 'false'], { errorMap: () => ({ message: 'must be 1 or 0' }) }).optional()
-    .transform(v => v === '1' || v === 'true'),
+  dryRun: flag,
 }).superRefine((q, ctx) => {
   if (q.format !== 'long') return
   for (const key of ['tagColumn', 'valueColumn'] as const)

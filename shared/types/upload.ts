@@ -1,4 +1,5 @@
 import type { LineRejection } from '../utils/csvSamples'
+import type { ColumnGuess, CsvDelimiter } from '../utils/csvLayout'
 
 /** What an import (or dry run) reports when it ends, or how far it got when it failed. */
 export interface UploadSummary {
@@ -26,3 +27,15 @@ export type UploadEvent =
   | { type: 'progress', rowsRead: number, stored: number, duplicates: number, rejectedCount: number }
   | { type: 'summary', summary: UploadSummary }
   | { type: 'error', message: string, summary: UploadSummary }
+
+/** POST /api/uploads/preview: the start of a file as the import would read it, with guesses. */
+export interface UploadPreview {
+  delimiter: CsvDelimiter
+  header: string[]
+  rows: string[][]
+  /** The site's zone: the default for times written without an offset. */
+  timeZone: string
+  guess: ColumnGuess
+  /** Which of the codes seen in the header or rows are tags of the site. */
+  knownTags: string[]
+}

@@ -10,7 +10,7 @@ await setupBuiltServer()
 // DESIGN.md §2: each role sees its own work. Admin pages are only in the admin's navigation.
 const EXPECTED_NAV: Record<Role, string[]> = {
   operator: ['Overview', 'Units', 'Tags'],
-  engineer: ['Overview', 'Units', 'Tags'],
+  engineer: ['Overview', 'Units', 'Tags', 'Upload history'],
   supervisor: ['Overview', 'Units', 'Tags'],
   admin: ['Overview', 'Units', 'Tags', 'Users', 'Gateways', 'Audit log'],
 }
@@ -38,7 +38,8 @@ describe('each role signs in and sees its pages', () => {
       for (const label of EXPECTED_NAV[role]) {
         await nav.getByText(label, { exact: true }).click()
         await page.getByRole('heading', { name: label }).first().waitFor()
-        await expect.poll(() => page.locator('tbody tr').count()).toBeGreaterThan(0)
+        // Table rows, or the overview's tiles.
+        await expect.poll(() => page.locator('tbody tr, [data-tile]').count()).toBeGreaterThan(0)
         await screenshot(page, `${role}-${label.toLowerCase().replace(/\s+/g, '-')}`)
       }
       await page.close()

@@ -16,8 +16,8 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 400, message })
   }
   const header = (await source.next())?.record.map(h => h.trim()) ?? refuse('body: the file is empty (no header line)')
-  const plan = planColumns(header, query)
-  if ('message' in plan) return refuse(`${plan.field}: ${plan.message}`)
+  const planned = planColumns(header, query)
+  const plan = 'message' in planned ? refuse(`${planned.field}: ${planned.message}`) : planned
   const timeZone = query.timeZone ?? site.timeZone
   const address = clientAddress(event)
 

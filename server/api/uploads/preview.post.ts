@@ -1,6 +1,7 @@
 import { parse } from 'csv-parse/sync'
 import { PREVIEW_MAX_BYTES, PREVIEW_ROWS, uploadPreviewQuerySchema } from '#shared/schemas/upload'
 import { detectDelimiter, guessColumns } from '#shared/utils/csvLayout'
+import type { UploadPreview } from '#shared/types/upload'
 
 // Body: the first bytes of the file as text (the browser cuts it with File.slice).
 export default defineEventHandler(async (event) => {
@@ -12,21 +13,23 @@ export default defineEventHandler(async (event) => {
   const text = (await readRawBody(event, 'utf8')) ?? ''
   if (Buffer.byteLength(text) > PREVIEW_MAX_BYTES)
     throw createError({ statusCode: 413, message: `body: send at most the first ${PREVIEW_MAX_BYTES} bytes of the file for a preview` })
-  // The slice may end mid-line; drop the partial last line unless it is all there is.
+  // A slice may end mid-line; drop its partial last line unless it is all there is.
   const cut = text.lastIndexOf('\n')
-  const whole = cut > 0 ? text.slice(0, cut) : text
+  const whole = query.complete || cut <= 0 ? text : text.slice(0, cut)
   if (!whole.trim()) throw createError({ statusCode: 400, message: 'body: the file is empty' })
   const delimiter = query.delimiter ?? detectDelimiter(whole)
   const records: string[][] = parse(whole, {
     delimiter, bom: true, relax_column_count: true, skip_empty_lines: true, skip_records_with_error: true, to: PREVIEW_ROWS + 1,
   })
-  const [header = [], ...rows] = records
+  const [first = [], ...rows] = records
+  const header = first.map(h => h.trim())
   const candidates = [...new Set([...header, ...rows.flat()].map(c => c.trim()).filter(Boolean))]
   const known = await tagIdsByCode(db, site.id, candidates)
   const isKnownTag = (code: string) => known.has(code.trim())
-  return {
+  const preview: UploadPreview = {
     delimiter, header, rows, timeZone: site.timeZone,
     guess: guessColumns(header, rows, isKnownTag),
     knownTags: [...known.keys()].sort(),
   }
+  return preview
 })

@@ -1,0 +1,82 @@
+import { writeFileSync, mkdtempSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { BrowserContext } from 'playwright-core'
+import { url } from '@nuxt/test-utils/e2e'
+import { setupBuiltServer } from '../support/server'
+import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
+import { testSql } from '../support/db'
+
+await setupBuiltServer()
+const sql = testSql()
+
+let context: BrowserContext
+beforeAll(async () => { context = await launchChromium() })
+afterAll(async () => {
+  await context?.close()
+  await sql.end()
+})
+
+// Plant-local (Europe/London, BST in August) times, one unknown tag on line 5.
+const CSV = [
+  'Timestamp,Tag,Value,Quality',
+  '2025-08-04 14:00:00,TI-401,38.2,good',
+  '2025-08-04 14:00:05,TI-401,38.3,good',
+  '2025-08-04 14:00:00,LI-402,61.5,uncertain',
+  '2025-08-04 14:00:05,XX-900,1.0,good',
+].join('\n')
+
+describe('engineer uploads historian CSV', () => {
+  it('previews, dry-runs, imports and sees the summary', async () => {
+    const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'fenwick-history.csv')
+    writeFileSync(file, CSV)
+    const page = await context.newPage()
+    await signInThroughForm(page, 'engineer')
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Upload history' }).click()
+    await page.getByRole('heading', { name: 'Upload history' }).waitFor()
+    await page.getByLabel('Historian CSV file').setInputFiles(file)
+
+    await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
+    expect(await page.getByLabel('Layout').inputValue()).toBe('long')
+    expect(await page.getByLabel('Value column').inputValue()).toBe('Value')
+    expect(await page.getByLabel('Time zone').inputValue()).toBe('Europe/London')
+    await expect.poll(() => page.locator('tbody tr').filter({ hasText: '2025-08-04 14:00' }).count()).toBe(4)
+    await screenshot(page, 'engineer-upload-preview')
+
+    await page.getByRole('button', { name: 'Dry run' }).click()
+    const rejected = page.getByRole('table', { name: 'Rejected lines' })
+    await rejected.waitFor()
+    await expect.poll(() => rejected.locator('tbody tr').first().textContent()).toContain('5')
+    expect(await rejected.locator('tbody tr').first().textContent()).toContain('unknown tag code "XX-900"')
+    expect(await page.getByTestId('upload-summary').textContent()).toContain('Samples that would be stored3')
+    await screenshot(page, 'engineer-upload-dry-run')
+
+    await page.getByRole('button', { name: 'Import', exact: true }).click()
+    await page.getByText('Samples stored').waitFor()
+    const summary = page.getByTestId('upload-summary')
+    await expect.poll(() => summary.textContent()).toContain('Samples stored3')
+    expect(await page.getByRole('progressbar', { name: 'Uploaded' }).getAttribute('aria-valuenow')).toBe('100')
+    await screenshot(page, 'engineer-upload-summary')
+
+    // 14:00 BST is 13:00 UTC (IANA tz database, Rule EU).
+    const rows = await sql`select t.code, s.time, s.value, s.quality from samples s join tags t on t.id = s.tag_id
+      where s.time between '2025-08-04T13:00:00Z' and '2025-08-04T13:00:05Z' order by t.code, s.time`
+    expect(rows.map(r => [r.code, (r.time as Date).toISOString(), r.value, r.quality])).toEqual([
+      ['LI-402', '2025-08-04T13:00:00.000Z', 61.5, 1],
+      ['TI-401', '2025-08-04T13:00:00.000Z', 38.2, 0],
+      ['TI-401', '2025-08-04T13:00:05.000Z', 38.3, 0],
+    ])
+    await page.close()
+  })
+
+  it('does not offer the page to an operator, and says why when opened directly', async () => {
+    await context.clearCookies()
+    const page = await context.newPage()
+    await signInThroughForm(page, 'operator')
+    expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Upload history' }).count()).toBe(0)
+    await page.goto(url('/upload'))
+    await page.getByText('Uploading history needs the engineer role.').waitFor()
+    await page.close()
+  })
+})
