@@ -7,6 +7,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Overview', capability: 'view' },
   { to: '/units', label: 'Units', capability: 'view' },
   { to: '/tags', label: 'Tags', capability: 'view' },
+  { to: '/upload', label: 'Upload history', capability: 'configure' },
   { to: '/admin/users', label: 'Users', capability: 'administer' },
   { to: '/admin/gateways', label: 'Gateways', capability: 'administer' },
   { to: '/admin/audit', label: 'Audit log', capability: 'administer' },
