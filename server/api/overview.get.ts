@@ -1,0 +1,4 @@
+export default defineEventHandler(async (event) => {
+  await requireCapability(event, 'view')
+  return readOverview(useDb())
+})

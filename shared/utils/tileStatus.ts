@@ -1,0 +1,23 @@
+import type { TagStatus } from '../alarms/vocabulary'
+
+/** Samples stop for this many sample periods → the tile says "no data" (DESIGN.md brief). */
+export const NO_DATA_PERIODS = 3
+// Gateways post in batches every few seconds, so a 1 s tag's newest sample is routinely a few
+// seconds old; below this floor its tile would flicker to "no data" between batches.
+export const NO_DATA_FLOOR_SECONDS = 15
+
+export interface StoredTagStatus { status: TagStatus, reason: string }
+
+/**
+ * What a tile shows: "no data" as soon as the newest sample is older than three sample periods
+ * (decided at read time, so it does not wait for the next pipeline run); otherwise the pipeline's
+ * status, or "steady" with "analysis pending" before the pipeline has judged the tag.
+ */
+export function tileStatus(input: { stored: StoredTagStatus | null, latestTimeMs: number | null, samplePeriodS: number, nowMs: number }): StoredTagStatus {
+  const limitS = Math.max(NO_DATA_PERIODS * input.samplePeriodS, NO_DATA_FLOOR_SECONDS)
+  if (input.latestTimeMs === null) return { status: 'no data', reason: 'no samples received yet' }
+  const ageS = (input.nowMs - input.latestTimeMs) / 1000
+  if (ageS > limitS) return { status: 'no data', reason: `no sample for ${Math.round(ageS)} s (limit ${limitS} s)` }
+  if (input.stored?.status === 'no data') return { status: 'steady', reason: 'samples resumed; analysis pending' }
+  return input.stored ?? { status: 'steady', reason: 'analysis pending' }
+}

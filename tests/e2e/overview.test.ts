@@ -1,0 +1,53 @@
+import { beforeAll, describe, expect, it } from 'vitest'
+import { CATALOGUE } from '../../simulators/catalogue'
+import { setupBuiltServer } from '../support/server'
+import { call, signInAs } from '../support/session'
+import { createTestGateway, ingest } from '../support/gateway'
+
+await setupBuiltServer()
+
+let cookie = ''
+const NOW = Date.now()
+// JI-302 (2 s period) gets fresh samples; EI-301 (2 s) samples that stopped 60 s ago, more than
+// 3 sample periods and the 15 s floor.
+const fresh = Array.from({ length: 120 }, (_, i) => ({ tag: 'JI-302', time: NOW - (119 - i) * 2_000, value: 50 + (i % 7) }))
+const stopped = Array.from({ length: 30 }, (_, i) => ({ tag: 'EI-301', time: NOW - 60_000 - (29 - i) * 2_000, value: 0.98 }))
+
+beforeAll(async () => {
+  const { key } = await createTestGateway('overview-gateway')
+  expect((await ingest(key, { samples: [...fresh, ...stopped] })).status).toBe(200)
+  cookie = await signInAs('operator')
+})
+
+const tileOf = (body: { units: { tiles: { code: string }[] }[] }, code: string) =>
+  body.units.flatMap(u => u.tiles).find(t => t.code === code) as any
+
+describe('GET /api/overview', () => {
+  it('groups every watched tag under its unit', async () => {
+    const res = await call('/api/overview', { cookie })
+    expect(res.status).toBe(200)
+    expect(res.body.units.map((u: { code: string }) => u.code)).toEqual(CATALOGUE.map(u => u.name.split(' ')[0]).sort())
+    expect(res.body.units.flatMap((u: { tiles: unknown[] }) => u.tiles)).toHaveLength(CATALOGUE.flatMap(u => u.tags).length)
+  })
+
+  it('shows the newest value and a sparkline of the newest samples, averaged in threes', async () => {
+    const tile = tileOf((await call('/api/overview', { cookie })).body, 'JI-302')
+    expect(tile.value).toBe(fresh.at(-1)!.value)
+    expect(tile.engineeringUnit).toBe('MW')
+    expect(tile.spark).toHaveLength(32)
+    const lastThree = fresh.slice(-3).map(s => s.value)
+    expect(tile.spark.at(-1)).toBeCloseTo(lastThree.reduce((a, b) => a + b, 0) / 3, 9)
+    expect(tile.status).not.toBe('no data')
+  })
+
+  it('says "no data" when samples stopped for more than 3 sample periods', async () => {
+    const tile = tileOf((await call('/api/overview', { cookie })).body, 'EI-301')
+    expect(tile.status).toBe('no data')
+    expect(tile.reason).toMatch(/no sample for \d+ s \(limit 15 s\)/)
+    expect(tile.value).toBe(0.98)
+  })
+
+  it('needs a session', async () => {
+    expect((await call('/api/overview')).status).toBe(401)
+  })
+})
