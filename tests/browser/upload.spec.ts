@@ -70,6 +70,25 @@ describe('engineer uploads historian CSV', () => {
     await page.close()
   })
 
+  it('maps a wide file: tag columns ticked, a column that is no tag of the site left out', async () => {
+    const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'fenwick-wide.csv')
+    writeFileSync(file, 'time;EI-301;JI-302;Ambient\n2025-08-05T09:00:00Z;1.01;80.5;21\n2025-08-05T09:00:02Z;1.02;;21\n')
+    await context.clearCookies()
+    const page = await context.newPage()
+    await signInThroughForm(page, 'engineer')
+    await page.goto(url('/upload'))
+    await page.getByLabel('Historian CSV file').setInputFiles(file)
+    await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
+    expect(await page.getByLabel('Layout').inputValue()).toBe('wide')
+    expect(await page.getByRole('checkbox', { name: 'EI-301' }).isChecked()).toBe(true)
+    expect(await page.getByRole('checkbox', { name: /Ambient/ }).isDisabled()).toBe(true)
+    await page.getByRole('button', { name: 'Import', exact: true }).click()
+    await expect.poll(() => page.getByTestId('upload-summary').textContent()).toContain('Samples stored3')
+    expect(await page.getByText('1 blank cells (no reading) were skipped').count()).toBe(1)
+    await screenshot(page, 'engineer-upload-wide')
+    await page.close()
+  })
+
   it('does not offer the page to an operator, and says why when opened directly', async () => {
     await context.clearCookies()
     const page = await context.newPage()
