@@ -25,7 +25,7 @@ interface DemoRule {
 
 const slowingDown = (tag: string, unit: string, what: string, action: string): DemoRule => ({
   tag, name: `${unit} ${tag} slowing down`, measure: 'early_warning', comparison: 'above', threshold: 0.5,
-  onDelay: { evaluations: 2 }, offDelay: { evaluations: 4 }, priority: 'medium', alarmClass: 'alert',
+  onDelay: { evaluations: 1 }, offDelay: { evaluations: 4 }, priority: 'medium', alarmClass: 'alert',
   consequence: `${what} is losing resilience; left alone it may tip to its other state.`,
   likelyCause: 'A slow drift in a driving condition is taking the process toward a fold.',
   operatorAction: action,
@@ -75,7 +75,7 @@ export async function seedDemoAlarmRules(tx: DbTransaction, siteId: number): Pro
     const tag = byCode.get(r.tag)
     if (!tag) return []
     return [{
-      siteId, targetKind: 'tag', tagId: tag.id, unitId: tag.unitId, name: r.name, measure: r.measure, comparison: r.comparison,
+      siteId, targetKind: 'tag' as const, tagId: tag.id, unitId: tag.unitId, name: r.name, measure: r.measure, comparison: r.comparison,
       threshold: r.threshold, deadband: r.deadband ?? 0, onDelayS: seconds(r.onDelay, tag.samplePeriodS), offDelayS: seconds(r.offDelay, tag.samplePeriodS),
       priority: r.priority, alarmClass: r.alarmClass, consequence: r.consequence, likelyCause: r.likelyCause, operatorAction: r.operatorAction,
     }]

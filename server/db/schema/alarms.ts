@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm'
 import { pgTable, serial, bigserial, bigint, integer, text, doublePrecision, timestamp, boolean, jsonb, index, uniqueIndex, check } from 'drizzle-orm/pg-core'
 import { ALARM_CLASSES, ALARM_STATES, COMPARISONS, PRIORITIES, RULE_MODES, TAG_MEASURES, TARGET_KINDS } from '../../../shared/alarms/vocabulary'
+import type { AlarmClass, AlarmState, Comparison, Priority, RuleMode, TagMeasure, TargetKind } from '../../../shared/alarms/vocabulary'
 import { oneOf } from './checks'
 import { sites, tags, units } from './plant'
 import { users } from './users'
@@ -10,22 +11,22 @@ import { users } from './users'
 export const alarmRules = pgTable('alarm_rules', {
   id: serial('id').primaryKey(),
   siteId: integer('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
-  targetKind: text('target_kind').notNull(),
+  targetKind: text('target_kind').$type<TargetKind>().notNull(),
   tagId: integer('tag_id').references(() => tags.id, { onDelete: 'cascade' }),
   unitId: integer('unit_id').notNull().references(() => units.id, { onDelete: 'cascade' }),
   name: text('name').notNull(),
-  measure: text('measure').notNull(),
-  comparison: text('comparison').notNull(),
+  measure: text('measure').$type<TagMeasure>().notNull(),
+  comparison: text('comparison').$type<Comparison>().notNull(),
   threshold: doublePrecision('threshold').notNull(),
   onDelayS: doublePrecision('on_delay_s').notNull().default(0),
   offDelayS: doublePrecision('off_delay_s').notNull().default(0),
   deadband: doublePrecision('deadband').notNull().default(0),
-  priority: text('priority').notNull(),
-  alarmClass: text('class').notNull(),
+  priority: text('priority').$type<Priority>().notNull(),
+  alarmClass: text('class').$type<AlarmClass>().notNull(),
   consequence: text('consequence').notNull(),
   likelyCause: text('likely_cause').notNull(),
   operatorAction: text('operator_action').notNull(),
-  mode: text('mode').notNull().default('in_service'),
+  mode: text('mode').$type<RuleMode>().notNull().default('in_service'),
   enabled: boolean('enabled').notNull().default(true),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
@@ -64,12 +65,12 @@ export const alarms = pgTable('alarms', {
   unitId: integer('unit_id').notNull().references(() => units.id, { onDelete: 'cascade' }),
   tagId: integer('tag_id').references(() => tags.id, { onDelete: 'cascade' }),
   // Snapshots of the rule at activation: a later edit does not rewrite history.
-  priority: text('priority').notNull(),
-  alarmClass: text('class').notNull(),
-  measure: text('measure').notNull(),
-  comparison: text('comparison').notNull(),
+  priority: text('priority').$type<Priority>().notNull(),
+  alarmClass: text('class').$type<AlarmClass>().notNull(),
+  measure: text('measure').$type<TagMeasure>().notNull(),
+  comparison: text('comparison').$type<Comparison>().notNull(),
   threshold: doublePrecision('threshold').notNull(),
-  state: text('state').notNull(),
+  state: text('state').$type<AlarmState>().notNull(),
   /** Whether the alarm condition currently holds (tracked through shelving and suppression). */
   conditionActive: boolean('condition_active').notNull(),
   raisedAt: timestamp('raised_at', { withTimezone: true }).notNull(),

@@ -1,0 +1,47 @@
+// The overview's status of one tag (DESIGN.md §3), from its data, its latest evaluation and its
+// open alarms. Data problems come first: a tag with no data or bad data shows that, never
+// "steady", and its indicators are not trusted.
+import type { AlarmClass, AlarmState, TagStatus } from '../alarms/vocabulary'
+import type { EvaluationPoint } from './evaluateRecord'
+import { duration, number } from '../notifications/format'
+
+/** Samples stopping for this many sample periods means "no data". */
+export const NO_DATA_PERIODS = 3
+/** A trend p-value at or below this puts the tag on watch before it is significant. */
+export const WATCH_P = 0.1
+
+export interface StatusInput {
+  now: number
+  latestTime: number | null
+  samplePeriodS: number
+  latest: EvaluationPoint | null
+  openAlarms: { alarmClass: AlarmClass, state: AlarmState, name: string }[]
+}
+
+export function deriveTagStatus(input: StatusInput): { status: TagStatus, reason: string } {
+  const silentFor = input.latestTime === null ? Number.POSITIVE_INFINITY : input.now - input.latestTime
+  if (silentFor > NO_DATA_PERIODS * input.samplePeriodS)
+    return { status: 'no data', reason: input.latestTime === null ? 'no samples yet' : `no sample for ${duration(silentFor)} (over ${NO_DATA_PERIODS} sample periods)` }
+  const p = input.latest
+  if (p?.quality) return { status: 'bad quality', reason: p.quality }
+  const annunciated = input.openAlarms.filter(a => a.state === 'unacknowledged' || a.state === 'acknowledged')
+  const alarm = annunciated.find(a => a.alarmClass === 'alarm')
+  if (alarm) return { status: 'alarm', reason: alarm.name }
+  const alert = annunciated.find(a => a.alarmClass === 'alert')
+  if (alert) return { status: 'warning', reason: alert.name }
+  if (p?.evidence === 'slowing down' && p.fold.kind === 'projected')
+    return { status: 'warning', reason: `slowing down; fold projected in ${duration(p.fold.seconds)}` }
+  if (p?.evidence === 'slowing down') return { status: 'watch', reason: `slowing down (autocorrelation trend p ${number(p.pAr1)})` }
+  if (p?.evidence === 'noise level changed') return { status: 'watch', reason: 'noise level changed (variance up without slowing down)' }
+  if (p?.pAr1 !== null && p?.pAr1 !== undefined && p.pAr1 <= WATCH_P)
+    return { status: 'watch', reason: `autocorrelation rising (p ${number(p.pAr1)})` }
+  return { status: 'steady', reason: '' }
+}
+
+/** The indicator whose trend is most significant: the one the tile leads with. */
+export function leadingIndicator(p: EvaluationPoint | null): { name: 'ar1' | 'variance', value: number | null, tau: number | null, p: number | null } | null {
+  if (!p || p.pAr1 === null || p.pVariance === null) return null
+  return p.pVariance < p.pAr1
+    ? { name: 'variance', value: p.variance, tau: p.tauVariance, p: p.pVariance }
+    : { name: 'ar1', value: p.ar1, tau: p.tauAr1, p: p.pAr1 }
+}
