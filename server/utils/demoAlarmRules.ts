@@ -65,20 +65,24 @@ export const DEMO_RULES: readonly DemoRule[] = [
 
 export const DEMO_ROUTE = { email: 'oncall@harrowgate.example', minPriority: 'high' as Priority }
 
+/** A demo rule's columns for one tag (delays given in evaluations become seconds for its period). */
+export function demoRuleColumns(r: DemoRule, tag: { id: number, unitId: number, samplePeriodS: number }) {
+  const seconds = (delay: DemoRule['onDelay']) =>
+    typeof delay === 'number' ? delay : delay.evaluations * evaluationIntervalS(defaultIndicatorSettings(tag.samplePeriodS), tag.samplePeriodS)
+  return {
+    targetKind: 'tag' as const, tagId: tag.id, unitId: tag.unitId, name: r.name, measure: r.measure, comparison: r.comparison,
+    threshold: r.threshold, deadband: r.deadband ?? 0, onDelayS: seconds(r.onDelay), offDelayS: seconds(r.offDelay),
+    priority: r.priority, alarmClass: r.alarmClass, consequence: r.consequence, likelyCause: r.likelyCause, operatorAction: r.operatorAction,
+  }
+}
+
 /** Creates the demo rules and route once; rules edited in the app keep their edits. */
 export async function seedDemoAlarmRules(tx: DbTransaction, siteId: number): Promise<void> {
   const tagRows = await tx.select().from(tags).where(and(eq(tags.siteId, siteId), inArray(tags.code, [...new Set(DEMO_RULES.map(r => r.tag))])))
   const byCode = new Map(tagRows.map(t => [t.code, t]))
-  const seconds = (delay: DemoRule['onDelay'], samplePeriodS: number) =>
-    typeof delay === 'number' ? delay : delay.evaluations * evaluationIntervalS(defaultIndicatorSettings(samplePeriodS), samplePeriodS)
   const rows = DEMO_RULES.flatMap((r) => {
     const tag = byCode.get(r.tag)
-    if (!tag) return []
-    return [{
-      siteId, targetKind: 'tag' as const, tagId: tag.id, unitId: tag.unitId, name: r.name, measure: r.measure, comparison: r.comparison,
-      threshold: r.threshold, deadband: r.deadband ?? 0, onDelayS: seconds(r.onDelay, tag.samplePeriodS), offDelayS: seconds(r.offDelay, tag.samplePeriodS),
-      priority: r.priority, alarmClass: r.alarmClass, consequence: r.consequence, likelyCause: r.likelyCause, operatorAction: r.operatorAction,
-    }]
+    return tag ? [{ siteId, ...demoRuleColumns(r, tag) }] : []
   })
   if (rows.length > 0) await tx.insert(alarmRules).values(rows).onConflictDoNothing()
   const [route] = await tx.select({ id: notificationRoutes.id }).from(notificationRoutes)
