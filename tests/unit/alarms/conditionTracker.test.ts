@@ -66,16 +66,17 @@ describe('condition tracker (generic limit logic, SCIENCE.md §D)', () => {
 
   // Chattering: ≥3 activations in 60 s (SCIENCE.md §D [R: secondary page]). Flow starting values
   // from the ISA-18.2-2009 tables (TR18.2.3): 5 % of span deadband, 15 s delays (SCIENCE.md §D
-  // [from memory]). The signal is an invented flow sitting on its high limit with 1 % noise.
+  // [from memory]). The signal is an invented flow swinging slowly across its high limit (span
+  // 0–100) with 1 % noise: it really exceeds the limit three times, and chatters at each crossing.
   it('deadband and delays stop a noisy signal at its limit from chattering', () => {
     const rng = createRng(2024)
     const times = Array.from({ length: 1800 }, (_, i) => i)
     let x = 0
-    const values = times.map(() => (x = 0.5 * x + rng.normal()) + 80)
+    const values = times.map(t => (x = 0.5 * x + rng.normal()) + 80 + 8 * Math.sin(2 * Math.PI * t / 600))
     const bare = activations(HIGH, times, values)
     expect(maxActivationsWithin(bare, 60)).toBeGreaterThanOrEqual(3)
     const tuned = activations({ ...HIGH, deadband: 5, onDelayS: 15, offDelayS: 15 }, times, values)
-    expect(tuned.length).toBeGreaterThanOrEqual(1)
+    expect(tuned).toHaveLength(3)
     expect(maxActivationsWithin(tuned, 60)).toBeLessThan(3)
   })
 

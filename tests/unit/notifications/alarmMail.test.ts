@@ -1,0 +1,62 @@
+import { describe, expect, it } from 'vitest'
+import { ADVISORY_CAUTION } from '../../../shared/alarms/vocabulary'
+import { renderAlarmMail, renderDigestMail, type AlarmMailFacts } from '../../../shared/notifications/alarmMail'
+import { duration, plantTime } from '../../../shared/notifications/format'
+
+// Invented facts: what is checked is that each required element reaches the text (DESIGN.md §6
+// lists them; §1 gives the caution), not any value of the demo plant.
+const FACTS: AlarmMailFacts = {
+  alarmId: 42, priority: 'high', alarmClass: 'alarm', siteName: 'Test Works', timeZone: 'Europe/London',
+  unitCode: 'U-1', unitName: 'Test unit', tagCode: 'TI-1', tagDescription: 'Test temperature', engineeringUnit: 'K',
+  ruleName: 'TI-1 fold in view', measureLabel: 'fold horizon (s)', comparison: 'below', threshold: 1200, value: 900,
+  raisedAt: '2026-07-01T08:00:00.000Z', latestValue: 880,
+  trend: { tauAr1: 0.81, pAr1: 0.01, tauVariance: 0.4, pVariance: 0.03, evidence: 'slowing down' },
+  fold: { kind: 'projected', seconds: 900, lowSeconds: 600, highSeconds: 1500 },
+  consequence: 'Runaway.', likelyCause: 'Cooling lost.', operatorAction: 'Open the cooling valve.', link: 'http://x.test/alarms?id=42',
+}
+
+describe('alarm mail text', () => {
+  it('states priority, target, condition, trend, fold band, operator action, link and the advisory caution', () => {
+    const { subject, text } = renderAlarmMail(FACTS)
+    expect(subject).toContain('HIGH alarm')
+    expect(subject).toContain('TI-1 (U-1)')
+    expect(text).toContain('Condition: fold horizon (s) below 1200')
+    expect(text).toContain('Kendall tau 0.81, p 0.01')
+    expect(text).toContain('Early-warning decision: slowing down.')
+    expect(text).toContain('Fold horizon: projected in 15 min (band 10 min to 25 min).')
+    expect(text).toContain('Operator action: Open the cooling valve.')
+    expect(text).toContain('Open the alarm: http://x.test/alarms?id=42')
+    expect(text.trim().endsWith(ADVISORY_CAUTION)).toBe(true)
+  })
+
+  it('says so when no fold is in view and when a unit rule has no tag', () => {
+    const { subject, text } = renderAlarmMail({ ...FACTS, tagCode: null, tagDescription: null, engineeringUnit: null, fold: { kind: 'none' }, trend: null })
+    expect(subject).toContain('unit U-1')
+    expect(text).toContain('no fold in view')
+    expect(text).toContain('Trend: not evaluated yet')
+  })
+
+  it('calls an alert advisory', () => {
+    expect(renderAlarmMail({ ...FACTS, alarmClass: 'alert', priority: 'medium' }).subject).toContain('MEDIUM advisory alert')
+  })
+
+  it('lists a flood digest most urgent first, each with its action and link, and the caution once', () => {
+    const digest = renderDigestMail({ siteName: 'Test Works', listLink: 'http://x.test/alarms', alarms: [
+      { ...FACTS, alarmId: 2, priority: 'low', link: 'http://x.test/alarms?id=2' },
+      { ...FACTS, alarmId: 1, priority: 'urgent', link: 'http://x.test/alarms?id=1' },
+    ] })
+    expect(digest.subject).toContain('2 alarms')
+    expect(digest.text.indexOf('URGENT')).toBeLessThan(digest.text.indexOf('LOW'))
+    expect(digest.text).toContain('http://x.test/alarms?id=2')
+    expect(digest.text.split(ADVISORY_CAUTION)).toHaveLength(2)
+  })
+})
+
+describe('message formats', () => {
+  it('shows plant-local time beside UTC (DESIGN.md §10); Europe/London is UTC+1 in July [common practice]', () => {
+    expect(plantTime('2026-07-01T08:00:00.000Z', 'Europe/London')).toBe('2026-07-01 09:00:00 Europe/London (08:00:00 UTC)')
+  })
+  it('writes durations in words', () => {
+    expect([duration(45), duration(900), duration(3900), duration(90_000), duration(-120)]).toEqual(['45 s', '15 min', '1 h 05 min', '1 d 1 h', '−2 min'])
+  })
+})
