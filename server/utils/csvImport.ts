@@ -89,7 +89,7 @@ export async function* importCsvRecords(db: Db, input: {
     console.error('[uploads:import]', err)
     source.discard()
     const message = `Stopped after ${summary.rowsRead} rows: ${(err as Error).message}. `
-      + `${summary.batchesCommitted} batches (${summary.stored} new samples) were committed; importing the file again is safe, stored samples count as duplicates.`
+      + `${summary.batchesCommitted} ${summary.batchesCommitted === 1 ? 'batch' : 'batches'} (${summary.stored} new samples) committed; importing the file again is safe, stored samples count as duplicates.`
     yield { type: 'error', message, summary: finish() }
   }
 }

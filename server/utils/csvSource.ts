@@ -13,12 +13,26 @@ export interface CsvRecord { record: string[], info: { lines: number } }
  */
 export function openCsvSource(body: Readable, delimiter = ',') {
   const parser = parse({
-    delimiter, info: true, bom: true, relax_column_count: true, skip_empty_lines: true,
+    // relax_quotes: a stray quote inside a field ("x"y) stays text for the row checks to refuse,
+    // instead of opening a quoted field that would swallow the lines after it.
+    delimiter, info: true, bom: true, relax_column_count: true, relax_quotes: true, skip_empty_lines: true,
     skip_records_with_error: true, max_record_size: MAX_RECORD_CHARS,
   })
   const unreadable: LineRejection[] = []
-  parser.on('skip', (err: Error & { lines?: number }) =>
-    unreadable.push({ line: err.lines ?? 0, column: '', value: '', reason: `unreadable CSV: ${err.message}` }))
+  let fatal: Error | undefined
+  parser.on('skip', (err: Error & { lines?: number, code?: string }) => {
+    if (fatal) return
+    if (err.code === 'CSV_MAX_RECORD_SIZE' || err.code === 'CSV_QUOTE_NOT_CLOSED') {
+      // After an unclosed quote csv-parse cannot find the next record boundary, and what follows
+      // would be lost unreported: stop feeding it, let the records before drain, then fail.
+      fatal = new Error(`a quoted field opened before line ${err.lines} is never closed (${err.message})`)
+      body.unpipe(parser)
+      body.resume()
+      setImmediate(() => parser.end())
+      return
+    }
+    unreadable.push({ line: err.lines ?? 0, column: '', value: '', reason: `unreadable CSV: ${err.message}` })
+  })
   // pipe(), not pipeline(): on an early answer the body must be drained, not the socket destroyed.
   const fail = (err: Error) => parser.destroy(err)
   body.on('error', fail).on('aborted', () => fail(new Error('the upload was interrupted')))
@@ -28,7 +42,9 @@ export function openCsvSource(body: Readable, delimiter = ',') {
     unreadable,
     next: async (): Promise<CsvRecord | undefined> => {
       const r = await records.next()
-      return r.done ? undefined : r.value
+      if (!r.done) return r.value
+      if (fatal) throw fatal
+      return undefined
     },
     /** Stops parsing and reads the rest of the body into nothing, so the client gets our answer. */
     discard() {

@@ -121,6 +121,16 @@ describe('POST /api/uploads/import', () => {
     expect((await call('/api/uploads/preview?siteId=1', { method: 'POST', body: csv, cookie: await signInAs('operator') })).status).toBe(403)
   })
 
+  it('a file that breaks mid-way: committed batches stay, the error says how far it got, a re-run is safe', async () => {
+    const rows = Array.from({ length: 6_000 }, (_, k) => `${Date.UTC(2025, 4, 1) + k * 1000},JI-302,${50 + (k % 7)}`)
+    const broken = `time,tag,value\n${rows.join('\n')}\n${Date.UTC(2025, 4, 2)},JI-302,"51\n${rows.join('\n')}\n`
+    const res = await importCsv(broken, { format: 'long', timeColumn: 'time', tagColumn: 'tag', valueColumn: 'value' })
+    expect(res.last).toMatchObject({ type: 'error', summary: { batchesCommitted: 1, stored: 5_000 } })
+    expect((res.last as { message: string }).message).toMatch(/never closed.*1 batch \(5000 new samples\) committed; importing the file again is safe/)
+    const fixed = await importCsv(`time,tag,value\n${rows.join('\n')}\n`, { format: 'long', timeColumn: 'time', tagColumn: 'tag', valueColumn: 'value' })
+    expect(fixed.summary).toMatchObject({ stored: 1_000, duplicates: 5_000, rejectedCount: 0 })
+  })
+
   it('streams a 1,000,000-row long file through in batches, with progress lines', async () => {
     const ROWS = 1_000_000
     const TAGS = ['AI-201', 'AI-202', 'FI-203', 'EI-301']
