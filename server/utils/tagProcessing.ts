@@ -27,7 +27,7 @@ export async function processTag(db: Db, tagId: number, ctx: ChangeContext, cloc
     const [tag] = await tx.select().from(tags).where(eq(tags.id, tagId))
     const [settings] = await tx.select().from(indicatorSettings).where(eq(indicatorSettings.tagId, tagId))
     if (!tag || !settings) return null
-    const loaded = await clock.run('load samples', () => loadRecord(tx, tagId, claim.lastSampleTime, settings, tag.samplePeriodS))
+    const loaded = await clock.run('load samples', () => loadRecord(tx, tagId, claim.lastSampleTime, settings, tag.samplePeriodS, claim.samplesSinceEvaluation))
     if (loaded.newCount === 0) return { samples: 0, evaluations: 0 }
     const { t, v } = loaded.rows
     const firstNew = t.length - loaded.newCount
@@ -68,7 +68,7 @@ export async function processTag(db: Db, tagId: number, ctx: ChangeContext, cloc
 }
 
 /** New samples after the claim (bad-quality readings left out), preceded by the history the windows need. */
-async function loadRecord(tx: DbTransaction, tagId: number, after: Date | null, settings: IndicatorSettings, samplePeriodS: number) {
+async function loadRecord(tx: DbTransaction, tagId: number, after: Date | null, settings: IndicatorSettings, samplePeriodS: number, sinceEvaluation: number) {
   const since = after ?? new Date(0)
   const fresh = await tx.execute<{ t: number, v: number }>(sql`
     select extract(epoch from time)::float8 as t, value as v from samples
@@ -76,7 +76,9 @@ async function loadRecord(tx: DbTransaction, tagId: number, after: Date | null, 
     order by time limit ${MAX_NEW_SAMPLES_PER_TICK}`)
   if (fresh.length === 0) return { newCount: 0, rows: { t: new Float64Array(), v: new Float64Array() } }
   const warmup = Math.ceil(WARMUP_BANDWIDTHS * settings.detrendBandwidthS / samplePeriodS)
-  const history = after === null ? [] : await tx.execute<{ t: number, v: number }>(sql`
+  // History is only needed when this batch reaches an evaluation; most ticks only carry new samples.
+  const evaluates = sinceEvaluation + fresh.length >= settings.evaluateEvery
+  const history = after === null || !evaluates ? [] : await tx.execute<{ t: number, v: number }>(sql`
     select extract(epoch from time)::float8 as t, value as v from samples
     where tag_id = ${tagId} and time <= ${since.toISOString()}::timestamptz and quality < 2
     order by time desc limit ${settings.trendWindowSamples + warmup}`)

@@ -7,6 +7,9 @@ import { unitSlowMode } from '../db/schema'
 
 // Advisory-lock namespace of the slow-mode stage, so one instance fits a unit at a time.
 const SLOW_MODE_LOCK = 72_301
+// A VAR(1) of m tags needs well over m aligned samples per window; past this many tags a unit's
+// window cannot support the fit, so it is not attempted.
+const MAX_SLOW_MODE_TAGS = 50
 
 type UnitDue = { unit_id: number, tag_ids: number[], step: number, cells: number, bandwidth: number, data_end: number }
 
@@ -24,7 +27,7 @@ export async function refreshSlowModes(db: Db, ctx: ChangeContext, clock: StageC
     join tag_analysis_state st on st.tag_id = t.id
     where t.watched
     group by t.unit_id
-    having count(*) >= 2 and min(st.last_sample_time) is not null
+    having count(*) between 2 and ${MAX_SLOW_MODE_TAGS} and min(st.last_sample_time) is not null
       and min(st.last_sample_time) >= coalesce((select max(u.time) from unit_slow_mode u where u.unit_id = t.unit_id), '-infinity'::timestamptz)
         + make_interval(secs => max(s.evaluate_every * t.sample_period_s))`)
   let refreshed = 0
