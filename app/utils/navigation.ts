@@ -5,8 +5,10 @@ export interface NavItem { to: string, label: string, capability: Capability }
 // Each role sees its own work (DESIGN.md §2); the server checks the same capabilities per route.
 export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Overview', capability: 'view' },
+  { to: '/alarms', label: 'Alarms', capability: 'view' },
   { to: '/units', label: 'Units', capability: 'view' },
   { to: '/tags', label: 'Tags', capability: 'view' },
+  { to: '/shift-log', label: 'Shift log', capability: 'view' },
   { to: '/upload', label: 'Upload history', capability: 'configure' },
   { to: '/admin/users', label: 'Users', capability: 'administer' },
   { to: '/admin/gateways', label: 'Gateways', capability: 'administer' },

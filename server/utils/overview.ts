@@ -14,7 +14,7 @@ interface OverviewRow {
   status: TagStatus | null, reason: string | null, leadingIndicator: string | null, leadingValue: number | null
   tau: number | null, pValue: number | null, foldKind: 'projected' | 'none' | null
   foldSeconds: number | null, foldLowSeconds: number | null, foldHighSeconds: number | null
-  unackedAlarms: number | null, statusUpdatedAt: string | null
+  unackedAlarms: number | null, openAlarmClass: 'alarm' | 'alert' | null, openAlarmName: string | null, statusUpdatedAt: string | null
 }
 
 /**
@@ -29,13 +29,20 @@ async function readOverviewRows(db: Db): Promise<OverviewRow[]> {
       ts.status, ts.reason, ts.leading_indicator as "leadingIndicator", ts.leading_value as "leadingValue",
       ts.tau, ts.p_value as "pValue", ts.fold_kind as "foldKind", ts.fold_seconds as "foldSeconds",
       ts.fold_low_seconds as "foldLowSeconds", ts.fold_high_seconds as "foldHighSeconds",
-      coalesce(unacked.n, 0)::int as "unackedAlarms", ts.updated_at as "statusUpdatedAt"
+      coalesce(unacked.n, 0)::int as "unackedAlarms", unacked.open_class as "openAlarmClass", unacked.open_name as "openAlarmName", ts.updated_at as "statusUpdatedAt"
     from tags t
     join units u on u.id = t.unit_id
     left join tag_status ts on ts.tag_id = t.id
-    -- Counted live (not from tag_status) so an acknowledgement shows on the next poll.
-    left join (select tag_id, count(*) as n from alarms where state in ('unacknowledged', 'rtn_unacknowledged')
-      group by tag_id) unacked on unacked.tag_id = t.id
+    -- Read live (not from tag_status) so an acknowledgement or a new alarm shows on the next poll.
+    -- The open alarm shown is the most severe annunciated one: alarm class before alert.
+    left join (
+      select a.tag_id,
+        count(*) filter (where a.state in ('unacknowledged', 'rtn_unacknowledged')) as n,
+        (array_agg(a.class order by a.class = 'alarm' desc, a.raised_at desc) filter (where a.state in ('unacknowledged', 'acknowledged')))[1] as open_class,
+        (array_agg(r.name order by a.class = 'alarm' desc, a.raised_at desc) filter (where a.state in ('unacknowledged', 'acknowledged')))[1] as open_name
+      from alarms a join alarm_rules r on r.id = a.rule_id
+      where a.state <> 'normal' and a.tag_id is not null
+      group by a.tag_id) unacked on unacked.tag_id = t.id
     left join lateral (select s.time, s.value from samples s where s.tag_id = t.id order by s.time desc limit 1) latest on true
     left join lateral (
       select array_agg(g.v order by g.k desc) as values from (
@@ -57,7 +64,8 @@ export async function readOverview(db: Db, nowMs = Date.now()): Promise<{ genera
     if (unit?.id !== row.unitId) units.push(unit = { id: row.unitId, code: row.unitCode, name: row.unitName, tiles: [] })
     const latestTimeMs = row.latestTime === null ? null : new Date(row.latestTime).getTime()
     const stored = row.status === null ? null : { status: row.status, reason: row.reason ?? '' }
-    const { status, reason } = tileStatus({ stored, latestTimeMs, samplePeriodS: row.samplePeriodS, nowMs })
+    const openAlarm = row.openAlarmClass ? { alarmClass: row.openAlarmClass, name: row.openAlarmName ?? '' } : null
+    const { status, reason } = tileStatus({ stored, latestTimeMs, samplePeriodS: row.samplePeriodS, nowMs, openAlarm })
     unit.tiles.push({
       id: row.id, code: row.code, description: row.description, engineeringUnit: row.engineeringUnit,
       status, reason,

@@ -8,16 +8,24 @@ export const NO_DATA_FLOOR_SECONDS = 15
 
 export interface StoredTagStatus { status: TagStatus, reason: string }
 
+/** The most severe annunciated (unacknowledged or acknowledged, not shelved) alarm of the tag. */
+export interface OpenAlarm { alarmClass: 'alarm' | 'alert', name: string }
+
 /**
- * What a tile shows: "no data" as soon as the newest sample is older than three sample periods
- * (decided at read time, so it does not wait for the next pipeline run); otherwise the pipeline's
- * status, or "steady" with "analysis pending" before the pipeline has judged the tag.
+ * What a tile shows, decided at read time so it does not wait for the next pipeline run:
+ * "no data" as soon as the newest sample is older than three sample periods; an annunciated
+ * alarm makes it at least "alarm" (an alert at least "warning"), as the pipeline would; otherwise
+ * the pipeline's status, or "steady" with "analysis pending" before the pipeline has judged it.
  */
-export function tileStatus(input: { stored: StoredTagStatus | null, latestTimeMs: number | null, samplePeriodS: number, nowMs: number }): StoredTagStatus {
+export function tileStatus(input: { stored: StoredTagStatus | null, latestTimeMs: number | null, samplePeriodS: number, nowMs: number, openAlarm?: OpenAlarm | null }): StoredTagStatus {
   const limitS = Math.max(NO_DATA_PERIODS * input.samplePeriodS, NO_DATA_FLOOR_SECONDS)
   if (input.latestTimeMs === null) return { status: 'no data', reason: 'no samples received yet' }
   const ageS = (input.nowMs - input.latestTimeMs) / 1000
   if (ageS > limitS) return { status: 'no data', reason: `no sample for ${Math.round(ageS)} s (limit ${limitS} s)` }
-  if (input.stored?.status === 'no data') return { status: 'steady', reason: 'samples resumed; analysis pending' }
-  return input.stored ?? { status: 'steady', reason: 'analysis pending' }
+  const stored = input.stored?.status === 'no data' ? { status: 'steady' as const, reason: 'samples arriving again; analysis pending' } : input.stored
+  if (stored?.status !== 'bad quality' && input.openAlarm) {
+    if (input.openAlarm.alarmClass === 'alarm') return { status: 'alarm', reason: input.openAlarm.name }
+    if (!stored || stored.status === 'steady' || stored.status === 'watch') return { status: 'warning', reason: input.openAlarm.name }
+  }
+  return stored ?? { status: 'steady', reason: 'analysis pending' }
 }

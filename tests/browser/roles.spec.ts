@@ -9,10 +9,10 @@ await setupBuiltServer()
 
 // DESIGN.md §2: each role sees its own work. Admin pages are only in the admin's navigation.
 const EXPECTED_NAV: Record<Role, string[]> = {
-  operator: ['Overview', 'Units', 'Tags'],
-  engineer: ['Overview', 'Units', 'Tags', 'Upload history'],
-  supervisor: ['Overview', 'Units', 'Tags'],
-  admin: ['Overview', 'Units', 'Tags', 'Users', 'Gateways', 'Audit log'],
+  operator: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log'],
+  engineer: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Upload history'],
+  supervisor: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log'],
+  admin: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Users', 'Gateways', 'Audit log'],
 }
 
 let context: BrowserContext

@@ -18,4 +18,13 @@ describe('tileStatus', () => {
     expect(tileStatus({ stored: null, latestTimeMs: now, samplePeriodS: 2, nowMs: now })).toEqual({ status: 'steady', reason: 'analysis pending' })
     expect(tileStatus({ stored: null, latestTimeMs: null, samplePeriodS: 2, nowMs: now }).status).toBe('no data')
   })
+
+  it('shows an annunciated alarm at once, an alert as at least warning, but never over bad quality', () => {
+    const base = { latestTimeMs: now, samplePeriodS: 1, nowMs: now }
+    const steady = { status: 'steady' as const, reason: '' }
+    expect(tileStatus({ ...base, stored: steady, openAlarm: { alarmClass: 'alarm', name: 'R-100 reactor temperature high' } }))
+      .toEqual({ status: 'alarm', reason: 'R-100 reactor temperature high' })
+    expect(tileStatus({ ...base, stored: steady, openAlarm: { alarmClass: 'alert', name: 'slowing down' } }).status).toBe('warning')
+    expect(tileStatus({ ...base, stored: { status: 'bad quality', reason: 'stuck' }, openAlarm: { alarmClass: 'alarm', name: 'x' } }).status).toBe('bad quality')
+  })
 })

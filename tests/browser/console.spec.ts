@@ -1,0 +1,172 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { BrowserContext, Page } from 'playwright-core'
+import { url } from '@nuxt/test-utils/e2e'
+import { setupBuiltServer } from '../support/server'
+import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
+import { call, signInAs } from '../support/session'
+import { createTestGateway, ingest } from '../support/gateway'
+import { ingestOu } from '../support/simulatedSamples'
+import { seriousA11yViolations } from '../support/axe'
+
+await setupBuiltServer({ BRINKLINE_TEST_ROUTES: '1' })
+
+// The operator's shift: live tiles while samples arrive, a tag's charts, its unit, an urgent
+// alarm acknowledged and another shelved, and a note in the shift log. Every screen is also
+// checked with axe-core (WCAG rules): no serious or critical violation.
+let context: BrowserContext
+let page: Page
+let key = ''
+let cookie = ''
+const ids: Record<string, { id: number, unitId: number }> = {}
+const NOW = Date.now()
+
+async function activeAlarm(ruleName: string) {
+  const res = await call('/api/alarms?view=active', { cookie })
+  return (res.body.alarms as Array<{ id: number, ruleName: string, state: string }>).find(a => a.ruleName === ruleName)
+}
+
+// expect.poll only works inside a test; hooks wait with this.
+async function until(check: () => Promise<boolean>, what: string, timeoutMs = 20_000) {
+  for (const end = Date.now() + timeoutMs; Date.now() < end; await new Promise(r => setTimeout(r, 250)))
+    if (await check()) return
+  throw new Error(`timed out waiting for ${what}`)
+}
+
+async function expectAccessible(name: string) {
+  const findings = await seriousA11yViolations(page)
+  if (findings.length) console.error(`[axe] ${name}:`, JSON.stringify(findings, null, 1))
+  expect(findings, name).toEqual([])
+}
+
+beforeAll(async () => {
+  ;({ key } = await createTestGateway('console-gateway'))
+  // An hour of TI-101 at 1 s around 350 K, so the tag page has indicators over the whole hour.
+  await ingestOu(key, { code: 'TI-101', periodS: 1, samples: 3_600, endMs: NOW - 60_000, mean: 350, k: 0.1, sigma: 0.6, seed: 21 })
+  await ingestOu(key, { code: 'AI-102', periodS: 30, samples: 120, endMs: NOW - 60_000, mean: 0.6, k: 0.01, sigma: 0.003, seed: 22 })
+  cookie = await signInAs('operator')
+  for (const t of (await call('/api/tags', { cookie })).body) ids[t.code] = { id: t.id, unitId: t.unitId }
+  // Demo rules (server/utils/demoAlarmRules.ts): TI-101 above 400 K and EI-301 below 0.75 pu,
+  // both urgent with a 10 s on-delay. Forty seconds past each limit, then one pipeline tick.
+  const start = Date.now() - 40_000
+  const samples = Array.from({ length: 40 }, (_, i) => [
+    { tag: 'TI-101', time: start + i * 1_000, value: 405 + (i % 3) },
+    { tag: 'EI-301', time: start + i * 1_000, value: 0.7 },
+  ]).flat()
+  expect((await ingest(key, { samples })).status).toBe(200)
+  const tick = await call('/api/public/test/run-task', { method: 'POST', json: { task: 'indicators:refresh' } })
+  expect(tick.status, JSON.stringify(tick.body)).toBe(200)
+  await until(async () => !!(await activeAlarm('R-100 reactor temperature high')) && !!(await activeAlarm('B-300 bus voltage low')), 'both alarms raised')
+  context = await launchChromium()
+  page = await context.newPage()
+  await signInThroughForm(page, 'operator')
+})
+afterAll(async () => { await context?.close() })
+
+describe('an operator on shift', () => {
+  it('sees the tiles update while simulated data arrives, and moves between them with the keyboard', async () => {
+    let value = 40
+    const feed = setInterval(() => { void ingest(key, { samples: [{ tag: 'JI-302', time: Date.now(), value: value += 1.5 }] }) }, 500)
+    try {
+      await page.goto(url('/'))
+      const tile = page.locator('[data-tile]', { hasText: 'JI-302' })
+      await tile.waitFor()
+      const first = await tile.locator('.text-3xl').textContent()
+      // The page polls every 5 s; the value shown must change without a reload.
+      await expect.poll(() => tile.locator('.text-3xl').textContent(), { timeout: 20_000, interval: 500 }).not.toBe(first)
+      await expect.poll(() => tile.textContent()).not.toMatch(/no data/)
+    }
+    finally {
+      clearInterval(feed)
+    }
+    await expect(page.getByRole('note').first().textContent()).resolves.toMatch(/Advisory only/)
+    await screenshot(page, 'console-overview')
+    await expectAccessible('overview')
+
+    const tiles = page.locator('[data-tile]')
+    await tiles.first().focus()
+    await page.keyboard.press('ArrowRight')
+    expect(await tiles.nth(1).evaluate(el => el === document.activeElement)).toBe(true)
+    await page.keyboard.press('ArrowLeft')
+    await page.keyboard.press('Enter')
+    await page.waitForURL(/\/tags\/\d+$/)
+  })
+
+  it('opens a tag: five synchronised charts, its trend statistics, and a CSV of what is shown', async () => {
+    await page.goto(url(`/tags/${ids['TI-101']!.id}`))
+    await page.getByRole('heading', { name: /TI-101/ }).waitFor()
+    await page.getByRole('radio', { name: '1h' }).click()
+    await expect.poll(() => page.locator('.uplot').count()).toBe(5)
+    await expect(page.getByText('Lag-1 autocorrelation trend').isVisible()).resolves.toBe(true)
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download CSV' }).click()])
+    const csv = await (await import('node:fs/promises')).readFile((await download.path())!, 'utf8')
+    const lines = csv.trim().split('\n')
+    expect(lines[0]).toBe('time_utc,value_mean_K,value_min_K,value_max_K,trend_K,residual_K,variance,lag1_autocorrelation,recovery_rate_per_s,recovery_rate_projection_per_s')
+    expect(lines.length).toBeGreaterThan(500)
+    await screenshot(page, 'console-tag-detail')
+    await expectAccessible('tag detail')
+  })
+
+  it('opens the unit: each tag\'s share of the slow mode and the recovery rate over time', async () => {
+    await page.goto(url(`/units/${ids['TI-101']!.unitId}`))
+    await page.getByRole('list', { name: 'Share of each tag in the slow mode' }).waitFor()
+    const shares = await page.getByRole('list', { name: 'Share of each tag in the slow mode' }).getByRole('listitem').allTextContents()
+    expect(shares.join(' ')).toMatch(/TI-101/)
+    expect(shares.join(' ')).toMatch(/AI-102/)
+    await expect.poll(() => page.locator('.uplot').count()).toBe(1)
+    await screenshot(page, 'console-unit-detail')
+    await expectAccessible('unit detail')
+  })
+})
+
+describe('alarms and the shift log', () => {
+  it('acknowledges an urgent alarm with a comment, seeing the operator action beside it', async () => {
+    await page.goto(url('/alarms'))
+    const row = page.getByTestId('alarm-row').filter({ hasText: 'R-100 reactor temperature high' })
+    await row.waitFor()
+    await expect(row.textContent()).resolves.toMatch(/Start the reactor high-temperature procedure/)
+    await expect(row.textContent()).resolves.toMatch(/urgent/)
+    await expect(page.getByRole('note').first().textContent()).resolves.toMatch(/Advisory only/)
+    await screenshot(page, 'console-alarms-active')
+    await expectAccessible('alarms')
+
+    await row.getByRole('checkbox').check()
+    await page.getByLabel('Comment').fill('Cooling at full, feed stopped per procedure')
+    await page.getByRole('button', { name: /Acknowledge 1 ticked/ }).click()
+    await expect.poll(async () => (await activeAlarm('R-100 reactor temperature high'))?.state).toBe('acknowledged')
+    await expect.poll(() => row.textContent()).toMatch(/acknowledged/)
+    const detail = await call(`/api/alarms/${(await activeAlarm('R-100 reactor temperature high'))!.id}`, { cookie })
+    expect(detail.body.events.map((e: { comment: string }) => e.comment)).toContain('Cooling at full, feed stopped per procedure')
+  })
+
+  it('shelves an alarm with a reason for a bounded time', async () => {
+    const row = page.getByTestId('alarm-row').filter({ hasText: 'B-300 bus voltage low' })
+    await row.getByRole('button', { name: /Shelve alarm/ }).click()
+    const dialog = page.getByRole('dialog')
+    await dialog.getByLabel('Reason').fill('Voltage transducer being recalibrated by instrument tech')
+    await dialog.getByLabel('For').selectOption({ label: '30 min' })
+    await screenshot(page, 'console-alarms-shelve')
+    await expectAccessible('shelve dialog')
+    await dialog.getByRole('button', { name: 'Shelve' }).click()
+    await expect.poll(async () => (await activeAlarm('B-300 bus voltage low'))?.state).toBe('shelved')
+    await expect.poll(() => row.textContent()).toMatch(/until .*: Voltage transducer being recalibrated/)
+    const shelved = await activeAlarm('B-300 bus voltage low') as unknown as { shelvedUntil: string }
+    const minutes = (Date.parse(shelved.shelvedUntil) - Date.now()) / 60_000
+    expect(minutes).toBeGreaterThan(28)
+    expect(minutes).toBeLessThanOrEqual(30)
+  })
+
+  it('writes a shift-log note about the alarm and finds it in the handover', async () => {
+    const row = page.getByTestId('alarm-row').filter({ hasText: 'R-100 reactor temperature high' })
+    await row.getByRole('link', { name: 'Log note' }).click()
+    await page.waitForURL(/\/shift-log\?alarmId=\d+/)
+    await page.getByLabel('Note', { exact: true }).fill('R-100 ignited at the end of the shift; cooling at full, feed stopped. Watch TI-101 on restart.')
+    await page.getByRole('button', { name: 'Add note' }).click()
+    const note = page.getByTestId('shift-log-note').filter({ hasText: 'R-100 ignited at the end of the shift' })
+    await note.waitFor()
+    await expect(note.textContent()).resolves.toMatch(/Olu Mensah.*R-100.*TI-101.*alarm #\d+/s)
+    await page.getByRole('radio', { name: /Handover/ }).click()
+    await expect.poll(() => note.count()).toBe(1)
+    await screenshot(page, 'console-shift-log')
+    await expectAccessible('shift log')
+  })
+})
