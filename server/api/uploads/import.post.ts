@@ -15,7 +15,8 @@ export default defineEventHandler(async (event) => {
     source.discard()
     throw createError({ statusCode: 400, message })
   }
-  const header = (await source.next())?.record.map(h => h.trim()) ?? refuse('body: the file is empty (no header line)')
+  const first = await source.next().catch((err: Error) => refuse(`body: the header line can't be read: ${err.message}`))
+  const header = first?.record.map(h => h.trim()) ?? refuse('body: the file is empty (no header line)')
   const planned = planColumns(header, query)
   const plan = 'message' in planned ? refuse(`${planned.field}: ${planned.message}`) : planned
   const timeZone = query.timeZone ?? site.timeZone

@@ -10,9 +10,11 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   const site = await findSite(db, query.siteId)
   if (!site) throw createError({ statusCode: 400, message: `siteId: no site with id ${query.siteId}` })
+  const tooLarge = () => createError({ statusCode: 413, message: `body: send at most the first ${PREVIEW_MAX_BYTES} bytes of the file for a preview` })
+  // Refuse a whole file by its declared length before reading it into memory.
+  if (Number(getRequestHeader(event, 'content-length') ?? 0) > PREVIEW_MAX_BYTES) throw tooLarge()
   const text = (await readRawBody(event, 'utf8')) ?? ''
-  if (Buffer.byteLength(text) > PREVIEW_MAX_BYTES)
-    throw createError({ statusCode: 413, message: `body: send at most the first ${PREVIEW_MAX_BYTES} bytes of the file for a preview` })
+  if (Buffer.byteLength(text) > PREVIEW_MAX_BYTES) throw tooLarge()
   // A slice may end mid-line; drop its partial last line unless it is all there is.
   const cut = text.lastIndexOf('\n')
   const whole = query.complete || cut <= 0 ? text : text.slice(0, cut)
