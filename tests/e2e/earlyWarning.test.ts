@@ -67,8 +67,10 @@ describe('early warning over simulated plants (DESIGN.md §9 detection)', () => 
   // Approach to voltage collapse: the demo load bus (SCIENCE.md C2, two-bus model with load
   // restoration) driven until it tips, its samples ingested as they would have arrived.
   it('alerts on the approach to a fold before the tip', async () => {
-    const voltage = await tagWithDemoRules('EI-391', 'B-300', 2, 'EI-301')
-    await createTestTag(sql, 'JI-392', 'B-300', 2)
+    // A unit of its own, so its slow mode is fitted from these two tags alone.
+    await sql`insert into units (site_id, code, name, kind) select site_id, 'B-391', 'Test load bus', kind from units where code = 'B-300'`
+    const voltage = await tagWithDemoRules('EI-391', 'B-391', 2, 'EI-301')
+    const power = await createTestTag(sql, 'JI-392', 'B-391', 2)
     const { unit, sampler } = simulate('grid', {}, null, 1)
     const samples: { tag: string, time: number, value: number }[] = []
     let tipMs: number | null = null
@@ -86,5 +88,12 @@ describe('early warning over simulated plants (DESIGN.md §9 detection)', () => 
     const leadMinutes = (tipMs! + shift - new Date(warning!.raised_at).getTime()) / 60_000
     console.log(`early-warning alert ${leadMinutes.toFixed(1)} min before the tip`)
     expect(leadMinutes).toBeGreaterThan(2)
+    // The unit's slow mode (SCIENCE.md A4): each tag's share of the leading left eigenvector,
+    // normalised to sum to 1, stored once the tick has processed both tags.
+    const [mode] = await sql`select m.shares, m.recovery_rate from unit_slow_mode m join units u on u.id = m.unit_id where u.code = 'B-391'`
+    expect(mode, 'no slow mode stored for the unit').toBeTruthy()
+    const shares = mode!.shares as Record<string, number>
+    expect(Object.keys(shares).map(Number).sort()).toEqual([voltage, power].sort())
+    expect(Object.values(shares).reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12)
   })
 })
