@@ -52,7 +52,8 @@ async function postRows(url: string, rows: Row[]): Promise<number> {
 }
 
 export async function run(): Promise<void> {
-  const stack = await startStack()
+  // The live pipeline would compete with ingest for the two cores; this measures ingest alone.
+  const stack = await startStack({ NUXT_PIPELINE_SCHEDULED: 'false', NUXT_SENDER_SCHEDULED: 'false' })
   try {
     const tags = await stack.sql<{ id: number, code: string }[]>`select id, code from tags order by id`
     let copyMs = 0

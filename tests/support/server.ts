@@ -26,8 +26,9 @@ async function createFileDatabase(): Promise<string> {
 }
 
 /**
- * Starts the one build (made by scripts/test.sh) against a fresh database. `TEST: ''` keeps
- * Nitro's scheduled tasks running, as they would in production.
+ * Starts the one build (made by scripts/test.sh) against a fresh database. @nuxt/test-utils runs
+ * it with NODE_ENV=test, so Nitro's scheduler stays off: tests drive the tasks through the
+ * test-only task route, and a test that needs the real scheduler passes NODE_ENV=production.
  */
 export async function setupBuiltServer(env: Record<string, string> = {}, options: { port?: number } = {}) {
   const databaseUrl = await createFileDatabase()
@@ -36,7 +37,7 @@ export async function setupBuiltServer(env: Record<string, string> = {}, options
     build: false,
     server: true,
     nuxtConfig: { nitro: { output: { dir: `${ROOT}/.output` } } },
-    env: { TEST: '', NUXT_DATABASE_URL: databaseUrl, ...env },
+    env: { NUXT_DATABASE_URL: databaseUrl, ...env },
     setupTimeout: 180_000,
     ...options,
   })
