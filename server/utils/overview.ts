@@ -2,15 +2,10 @@ import type { TagStatus } from '#shared/alarms/vocabulary'
 import type { OverviewUnit } from '#shared/types/overview'
 import { tileStatus } from '#shared/utils/tileStatus'
 
-// Sparkline: the newest SPARK_SAMPLES samples averaged in groups of SPARK_GROUP, so every tile
-// draws the same number of points on its own time scale, at a bounded cost per tag.
-const SPARK_SAMPLES = 96
-const SPARK_GROUP = 3
-
 interface OverviewRow {
   id: number, code: string, description: string, engineeringUnit: string, samplePeriodS: number
   unitId: number, unitCode: string, unitName: string
-  latestTime: string | null, latestValue: number | null, spark: number[] | null
+  latestTime: string | null, latestValue: number | null
   status: TagStatus | null, reason: string | null, leadingIndicator: string | null, leadingValue: number | null
   tau: number | null, pValue: number | null, foldKind: 'projected' | 'none' | null
   foldSeconds: number | null, foldLowSeconds: number | null, foldHighSeconds: number | null
@@ -18,14 +13,14 @@ interface OverviewRow {
 }
 
 /**
- * Every watched tag with its newest sample, pipeline status and sparkline, in one query: the
- * cost is a few index probes per tag on the samples primary key, never a scan.
+ * Every watched tag with its newest sample, pipeline status and open alarms, in one query: the
+ * cost is one index probe per tag on the samples primary key, never a scan.
  */
 async function readOverviewRows(db: Db): Promise<OverviewRow[]> {
   return db.$sql<OverviewRow[]>`
     select t.id, t.code, t.description, t.engineering_unit as "engineeringUnit", t.sample_period_s as "samplePeriodS",
       u.id as "unitId", u.code as "unitCode", u.name as "unitName",
-      latest.time as "latestTime", latest.value as "latestValue", spark.values as spark,
+      latest.time as "latestTime", latest.value as "latestValue",
       ts.status, ts.reason, ts.leading_indicator as "leadingIndicator", ts.leading_value as "leadingValue",
       ts.tau, ts.p_value as "pValue", ts.fold_kind as "foldKind", ts.fold_seconds as "foldSeconds",
       ts.fold_low_seconds as "foldLowSeconds", ts.fold_high_seconds as "foldHighSeconds",
@@ -44,20 +39,12 @@ async function readOverviewRows(db: Db): Promise<OverviewRow[]> {
       where a.state <> 'normal' and a.tag_id is not null
       group by a.tag_id) unacked on unacked.tag_id = t.id
     left join lateral (select s.time, s.value from samples s where s.tag_id = t.id order by s.time desc limit 1) latest on true
-    left join lateral (
-      select array_agg(g.v order by g.k desc) as values from (
-        select r.k, avg(r.value) as v from (
-          select s.value, (row_number() over (order by s.time desc) - 1) / ${SPARK_GROUP} as k
-          from samples s where s.tag_id = t.id order by s.time desc limit ${SPARK_SAMPLES}
-        ) r group by r.k
-      ) g
-    ) spark on true
     where t.watched
     order by u.code, t.code`
 }
 
 export async function readOverview(db: Db, nowMs = Date.now()): Promise<{ generatedAt: string, units: OverviewUnit[] }> {
-  const rows = await readOverviewRows(db)
+  const [rows, sparklines] = await Promise.all([readOverviewRows(db), overviewSparklines(db)])
   const units: OverviewUnit[] = []
   for (const row of rows) {
     let unit = units.at(-1)
@@ -71,7 +58,7 @@ export async function readOverview(db: Db, nowMs = Date.now()): Promise<{ genera
       status, reason,
       value: row.latestValue === null ? null : Number(row.latestValue),
       valueTime: latestTimeMs === null ? null : new Date(latestTimeMs).toISOString(),
-      spark: (row.spark ?? []).map(Number),
+      spark: sparklines.get(row.id) ?? [],
       leadingIndicator: row.leadingIndicator, leadingValue: row.leadingValue, tau: row.tau, pValue: row.pValue,
       fold: row.foldKind === 'projected' && row.foldSeconds !== null
         ? { kind: 'projected', seconds: row.foldSeconds, lowSeconds: row.foldLowSeconds, highSeconds: row.foldHighSeconds }
