@@ -94,16 +94,39 @@ describe('an operator on shift', () => {
   it('opens a tag: five synchronised charts, its trend statistics, and a CSV of what is shown', async () => {
     await page.goto(url(`/tags/${ids['TI-101']!.id}`))
     await page.getByRole('heading', { name: /TI-101/ }).waitFor()
-    await page.getByRole('radio', { name: '1h' }).click()
+    await Promise.all([
+      page.waitForResponse(r => r.url().includes('/series') && r.url().includes('range=1h')),
+      page.getByRole('radio', { name: '1h' }).click(),
+    ])
+    await expect.poll(() => page.getByRole('radio', { name: '1h' }).getAttribute('aria-checked')).toBe('true')
     await expect.poll(() => page.locator('.uplot').count()).toBe(5)
     await expect(page.getByText('Lag-1 autocorrelation trend').isVisible()).resolves.toBe(true)
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download CSV' }).click()])
     const csv = await (await import('node:fs/promises')).readFile((await download.path())!, 'utf8')
     const lines = csv.trim().split('\n')
     expect(lines[0]).toBe('time_utc,value_mean_K,value_min_K,value_max_K,trend_K,residual_K,variance,lag1_autocorrelation,recovery_rate_per_s,recovery_rate_projection_per_s')
-    expect(lines.length).toBeGreaterThan(500)
+    // The hour in 1,000 buckets of 3.6 s, nearly all holding samples (the data cover the hour).
+    expect(lines.length).toBeGreaterThan(900)
     await screenshot(page, 'console-tag-detail')
     await expectAccessible('tag detail')
+
+    // Zoom by dragging across the residuals chart: every chart and the CSV follow the same range.
+    const over = page.locator('.uplot .u-over').nth(1)
+    const box = (await over.boundingBox())!
+    await page.mouse.move(box.x + box.width * 0.4, box.y + box.height / 2)
+    await page.mouse.down()
+    await page.mouse.move(box.x + box.width * 0.6, box.y + box.height / 2, { steps: 5 })
+    await page.mouse.up()
+    await expect(page.getByRole('button', { name: 'Whole range' }).isEnabled()).resolves.toBe(true)
+    const [zoomed] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download CSV' }).click()])
+    expect(zoomed.suggestedFilename()).toBe('TI-101-1h-zoomed.csv')
+    const zoomedLines = (await (await import('node:fs/promises')).readFile((await zoomed.path())!, 'utf8')).trim().split('\n')
+    // A fifth of the width is a fifth of the hour: about 200 of the 1,000 buckets.
+    expect(zoomedLines.length).toBeGreaterThan(150)
+    expect(zoomedLines.length).toBeLessThan(260)
+    await screenshot(page, 'console-tag-zoomed')
+    await page.getByRole('button', { name: 'Whole range' }).click()
+    await expect(page.getByRole('button', { name: 'Whole range' }).isDisabled()).resolves.toBe(true)
   })
 
   it('opens the unit: each tag\'s share of the slow mode and the recovery rate over time', async () => {
