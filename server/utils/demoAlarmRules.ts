@@ -2,7 +2,7 @@
 // simulated plant's own scale (simulators/catalogue.ts); the rationale texts are written for the
 // demo, like the plant itself.
 import { and, eq, inArray } from 'drizzle-orm'
-import { defaultIndicatorSettings, evaluationIntervalS } from '#shared/pipeline/indicatorDefaults'
+import { defaultIndicatorSettings, EARLY_WARNING_DELAYS, evaluationIntervalS, FOLD_IN_VIEW_DELAYS } from '#shared/pipeline/indicatorDefaults'
 import type { AlarmClass, Comparison, Priority, TagMeasure } from '#shared/alarms/vocabulary'
 import { alarmRules, notificationRoutes, tags } from '../db/schema'
 
@@ -25,18 +25,22 @@ interface DemoRule {
 
 const slowingDown = (tag: string, unit: string, what: string, action: string): DemoRule => ({
   tag, name: `${unit} ${tag} slowing down`, measure: 'early_warning', comparison: 'above', threshold: 0.5,
-  onDelay: { evaluations: 1 }, offDelay: { evaluations: 4 }, priority: 'medium', alarmClass: 'alert',
+  // Calibrated on the whole live procedure (shared/pipeline/indicatorDefaults.ts EARLY_WARNING_DELAYS).
+  onDelay: { evaluations: EARLY_WARNING_DELAYS.onDelayEvaluations }, offDelay: { evaluations: EARLY_WARNING_DELAYS.offDelayEvaluations },
+  priority: 'medium', alarmClass: 'alert',
   consequence: `${what} is losing resilience; left alone it may tip to its other state.`,
   likelyCause: 'A slow drift in a driving condition is taking the process toward a fold.',
   operatorAction: action,
 })
+
+const foldDelays = { onDelay: { evaluations: FOLD_IN_VIEW_DELAYS.onDelayEvaluations }, offDelay: { evaluations: FOLD_IN_VIEW_DELAYS.offDelayEvaluations } }
 
 export const DEMO_RULES: readonly DemoRule[] = [
   { tag: 'TI-101', name: 'R-100 reactor temperature high', measure: 'value', comparison: 'above', threshold: 400, deadband: 2, onDelay: 10, offDelay: 60,
     priority: 'urgent', alarmClass: 'alarm', consequence: 'Runaway on the hot branch: over-temperature and pressure relief.',
     likelyCause: 'The reactor has ignited to its hot operating state.', operatorAction: 'Start the reactor high-temperature procedure: full cooling, stop the feed.' },
   slowingDown('TI-101', 'R-100', 'The reactor\'s cool operating state', 'Check the cooling-water supply temperature and jacket fouling; prepare to reduce feed per procedure.'),
-  { tag: 'TI-101', name: 'R-100 fold in view', measure: 'fold_horizon', comparison: 'below', threshold: 1200, deadband: 300, onDelay: { evaluations: 1 }, offDelay: { evaluations: 3 },
+  { tag: 'TI-101', name: 'R-100 fold in view', measure: 'fold_horizon', comparison: 'below', threshold: 1200, deadband: 300, onDelay: foldDelays.onDelay, offDelay: foldDelays.offDelay,
     priority: 'high', alarmClass: 'alarm', consequence: 'Ignition to the hot branch within the projected horizon.',
     likelyCause: 'Cooling capacity falling toward the ignition point.', operatorAction: 'Lower the cooling-water temperature or reduce feed per procedure before the projected time.' },
   { tag: 'AI-201', name: 'D-200 VFA high', measure: 'value', comparison: 'above', threshold: 60, deadband: 3, onDelay: 60, offDelay: 60,
@@ -50,7 +54,7 @@ export const DEMO_RULES: readonly DemoRule[] = [
     priority: 'urgent', alarmClass: 'alarm', consequence: 'Voltage collapse at the load bus.',
     likelyCause: 'Demand beyond the nose of the P–V curve.', operatorAction: 'Shed load or raise reactive support per the grid operator\'s instructions.' },
   slowingDown('EI-301', 'B-300', 'The load-bus voltage', 'Check the demand trend and reactive reserve; warn the grid operator per procedure.'),
-  { tag: 'EI-301', name: 'B-300 fold in view', measure: 'fold_horizon', comparison: 'below', threshold: 900, deadband: 300, onDelay: { evaluations: 1 }, offDelay: { evaluations: 3 },
+  { tag: 'EI-301', name: 'B-300 fold in view', measure: 'fold_horizon', comparison: 'below', threshold: 900, deadband: 300, onDelay: foldDelays.onDelay, offDelay: foldDelays.offDelay,
     priority: 'high', alarmClass: 'alarm', consequence: 'Voltage collapse within the projected horizon.',
     likelyCause: 'Demand rising toward the maximum transferable power.', operatorAction: 'Arrange load reduction or reactive support with the grid operator before the projected time.' },
   { tag: 'TI-401', name: 'T-400 feed temperature high', measure: 'value', comparison: 'above', threshold: 55, deadband: 1, onDelay: 60, offDelay: 60,

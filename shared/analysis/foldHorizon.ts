@@ -1,7 +1,7 @@
 // Fold horizon (SCIENCE.md A1, "distance and time to fold"): near a fold the recovery rate obeys
 // k² ∝ (μ_c − μ); with a steadily drifting driver, k² falls linearly in time and reaches zero at
 // the fold. A weighted line through the recent k̂² estimates extrapolates to that time.
-import { normalQuantile } from './normal'
+import { studentTQuantile } from './studentT'
 
 /** One recovery-rate estimate: the window's newest time, the rate and its standard error. */
 export interface RatePoint {
@@ -28,7 +28,7 @@ export type FoldHorizon =
     foldTime: number
     low: number
     high: number
-    /** foldTime − now (≤ 0 means the fold is projected to have been reached). */
+    /** foldTime − now, always > 0 (a line reaching zero earlier is no projection). */
     horizon: number
     /** d(k²)/dt and its standard error. */
     slope: number
@@ -62,13 +62,20 @@ export function foldHorizon(points: readonly RatePoint[], options: FoldHorizonOp
   const inflation = usable.length / independent
   const varA = fit.varA * inflation
   const varB = fit.varB * inflation
-  const zSlope = normalQuantile(1 - options.alpha)
+  // A line through about `independent` estimates leaves that many minus two degrees of freedom;
+  // with three to six windows the normal quantile would understate both test and band severalfold.
+  const df = Math.floor(independent) - 2
+  const zSlope = studentTQuantile(1 - options.alpha, df)
   if (!(fit.b < -zSlope * Math.sqrt(varB))) {
     return { kind: 'no fold in view', reason: `the recovery rate² is not falling significantly (slope ${fit.b.toPrecision(3)} ± ${Math.sqrt(varB).toPrecision(3)})` }
   }
-  const zBand = normalQuantile(0.5 + options.confidence / 2)
+  const zBand = studentTQuantile(0.5 + options.confidence / 2, df)
   const band = fiellerBand(fit.a, fit.b, varA, varB, zBand)
   const foldTime = fit.tMean - fit.a / fit.b
+  // The newest window still measured a positive recovery rate up to `now`, so a line reaching
+  // zero before then contradicts the data it was fitted to (k² curving, not a passed fold): it is
+  // no horizon, and reporting "0 min" from it would trip every fold-in-view rule.
+  if (foldTime <= options.now) return { kind: 'no fold in view', reason: 'the fitted line reaches zero before the newest estimate, which still recovers' }
   return {
     kind: 'fold in view',
     foldTime,
@@ -83,8 +90,26 @@ export function foldHorizon(points: readonly RatePoint[], options: FoldHorizonOp
 interface LineFit { tMean: number, a: number, b: number, varA: number, varB: number }
 
 function weightedLine(points: readonly RatePoint[]): LineFit {
-  const w = points.map(p => 1 / (4 * p.rate * p.rate * p.se * p.se))
   const y = points.map(p => p.rate * p.rate)
+  const observedVar = points.map(p => 4 * p.rate * p.rate * p.se * p.se)
+  // Weights from each point's own k̂ favour the points that came out low by chance (Var(k̂²)
+  // grows like k³, SCIENCE.md A2), dragging the line down and the fold early. So the weights are
+  // re-evaluated at the fitted k² (iteratively reweighted least squares, two passes), floored at
+  // the smallest observed k̂² so a line crossing zero inside the data cannot take all the weight.
+  const floor = Math.min(...y.filter(v => v > 0))
+  let fit = lineThrough(points, y, y.map(() => 1))
+  for (let pass = 0; pass < 2; pass++) {
+    const current = fit
+    const w = points.map((p, i) => {
+      const fitted = Math.max(floor, current.a + current.b * (p.time - current.tMean))
+      return 1 / (observedVar[i]! * (fitted / y[i]!) ** 1.5)
+    })
+    fit = lineThrough(points, y, w)
+  }
+  return fit
+}
+
+function lineThrough(points: readonly RatePoint[], y: readonly number[], w: readonly number[]): LineFit {
   const sw = w.reduce((s, v) => s + v, 0)
   const tMean = points.reduce((s, p, i) => s + w[i]! * p.time, 0) / sw
   const a = y.reduce((s, v, i) => s + w[i]! * v, 0) / sw

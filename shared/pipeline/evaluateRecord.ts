@@ -126,16 +126,30 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, end: number, ti
   }
 }
 
+/**
+ * The fold fit uses shorter windows than the indicators: a line needs several independent
+ * estimates (with the 3 windows of the trend window it had one degree of freedom left, and a
+ * projection needed t > 31.8). Six windows leave four; their k̂ is √2 noisier than a 300-sample one.
+ */
+const FOLD_WINDOWS = 6
+function foldWindowSamples(settings: IndicatorSettings): number {
+  return Math.floor(settings.trendWindowSamples / FOLD_WINDOWS)
+}
+
 /** Recovery rates of the windows inside the trend window, extrapolated to zero (SCIENCE.md A1). */
 function foldOf(times: Float64Array, residuals: Float64Array, settings: IndicatorSettings, now: number): EvaluationPoint['fold'] {
-  const series = indicatorSeries(times, residuals, { window: { kind: 'count', samples: settings.windowSamples }, step: settings.indicatorStep })
+  const w = foldWindowSamples(settings)
+  const series = indicatorSeries(times, residuals, { window: { kind: 'count', samples: w }, step: settings.indicatorStep })
   const dt = (times[times.length - 1]! - times[0]!) / (times.length - 1)
   const points: RatePoint[] = []
+  // A window's rate describes its middle, not its newest sample: labelling it at the end would
+  // shift the whole line, and the projected fold, half a window late.
+  const halfWindow = (w - 1) * dt / 2
   series.time.forEach((t, k) => {
     const rate = series.recoveryRate[k]!
-    if (Number.isFinite(rate)) points.push({ time: t, rate, se: recoveryRateSe(rate, dt, settings.windowSamples) })
+    if (Number.isFinite(rate)) points.push({ time: t - halfWindow, rate, se: recoveryRateSe(rate, dt, w) })
   })
-  const horizon = foldHorizon(points, { windowSeconds: settings.windowSamples * dt, alpha: FOLD_ALPHA, confidence: FOLD_CONFIDENCE, now })
+  const horizon = foldHorizon(points, { windowSeconds: w * dt, alpha: FOLD_ALPHA, confidence: FOLD_CONFIDENCE, now })
   if (horizon.kind !== 'fold in view') return { kind: 'none' }
   return { kind: 'projected', seconds: horizon.horizon, lowSeconds: horizon.low - now, highSeconds: horizon.high - now }
 }

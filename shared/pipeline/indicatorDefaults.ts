@@ -25,6 +25,8 @@ export function defaultIndicatorSettings(samplePeriodS: number): IndicatorSettin
     // 99 surrogates resolve p down to 0.01 = (1 + 0)/(99 + 1) (Davison & Hinkley 1997 [from memory]).
     surrogates: 99,
     alpha: 0.01,
+    // Does not bind in practice: every null or approach evaluation with p ≤ 0.01 had τ ≥ 0.7
+    // (detection study); kept as a floor for tags given fewer surrogates.
     minTau: 0.3,
   }
 }
@@ -32,3 +34,23 @@ export function defaultIndicatorSettings(samplePeriodS: number): IndicatorSettin
 /** Seconds between two evaluations of a tag's trend tests. */
 export const evaluationIntervalS = (settings: Pick<IndicatorSettings, 'evaluateEvery'>, samplePeriodS: number) =>
   settings.evaluateEvery * samplePeriodS
+
+/** A slowing-down or fold-in-view rule's delays, counted in evaluations of the trend tests. */
+export interface EvaluationDelays {
+  onDelayEvaluations: number
+  offDelayEvaluations: number
+}
+
+/**
+ * The slowing-down alert raises only after the evidence has held at 4 consecutive evaluations
+ * (on-delay 3 evaluation intervals). Each single test is calibrated (p ≤ 0.01 on 1.2% of 1,232
+ * steady-unit evaluations), but a tag is re-tested 168 times a week on overlapping data (SCIENCE.md
+ * A5 item 12). Whole-procedure study (scripts/bench/detection.ts, 60 s samples, 28 steady-unit and
+ * 36 OU-null tag-weeks): on-delay 1 gave 10 steady + 7 OU false alerts (0.27 per tag-week); on-delay
+ * 2 gave 3 + 1; on-delay 3 gave 1 + 0 (0.016 per tag-week); on-delay 4 gave 0 but detected the
+ * demo bus in 6/8 runs with a 5 min median lead against 7 min. Null streaks of evidence rarely
+ * reach 4 because the 900-sample trend window moves on by 60 samples per evaluation, while a real
+ * approach keeps the evidence. α below 0.01 would need several times more surrogates per tick.
+ */
+export const EARLY_WARNING_DELAYS: EvaluationDelays = { onDelayEvaluations: 3, offDelayEvaluations: 4 }
+export const FOLD_IN_VIEW_DELAYS: EvaluationDelays = { onDelayEvaluations: 1, offDelayEvaluations: 3 }

@@ -32,12 +32,20 @@ describe('fold horizon on a slow ramp toward the fold (SCIENCE.md A1)', () => {
   const horizons = runs.map(run => horizonOf(run, { kind: 'gaussian', bandwidth: 30 }))
   const inView = horizons.filter(h => h.kind === 'fold in view')
 
+  // The slope test uses Student's t on the ~8 independent windows (6 df), no longer the normal
+  // quantile, so it is stricter than before (13 of these 20 runs, was 16); more than half must see it.
   it('sees the fold in most runs, with slope d(λ²)/dt of the analytic −4/1000', () => {
-    expect(inView.length).toBeGreaterThanOrEqual(16)
+    expect(inView.length).toBeGreaterThanOrEqual(11)
     // Mean slope over runs vs −0.004: each slope SE is reported; the mean's SE is √Σse²/m.
     const meanSlope = inView.reduce((s, h) => s + h.slope, 0) / inView.length
     const se = Math.sqrt(inView.reduce((s, h) => s + h.slopeSe ** 2, 0)) / inView.length
     expect(Math.abs(meanSlope + 0.004)).toBeLessThan(4.5 * se)
+  })
+
+  // Observed at t = 800 the fold is 200 time units ahead: a projection of "already reached"
+  // (the former "0 min") would be wrong whatever its band says.
+  it('never projects a fold that has already been reached', () => {
+    for (const h of inView) expect(h.kind === 'fold in view' && h.horizon).toBeGreaterThan(0)
   })
 
   // The 90% band is a confidence interval: the number of bands containing t* = 1000 among the
