@@ -45,11 +45,12 @@ describe('early warning over simulated plants (DESIGN.md §9 detection)', () => 
   // The control: the steady feed tank's two loops (OU processes, SCIENCE.md A2) never change
   // stability, so over a simulated week no rule may raise anything (DESIGN.md §9; false alarms
   // from repeated looks, SCIENCE.md A5 item 12). Sampled every 60 s to keep the week short.
-  // Seed 8. Known limit (see the issue report): offline, seed 7 gives one false early-warning
-  // alert on the temperature loop in a week with these default settings.
+  // Seed 7: it raised a false slowing-down alert on the temperature loop with the former on-delay
+  // of one evaluation. The on-delay now comes from the whole-procedure study
+  // (scripts/bench/detection.ts: 1 false alert in 64 null tag-weeks), not from a lucky seed.
   it('raises nothing on the steady unit over a simulated week', async () => {
     const ids = [await tagWithDemoRules('TI-491', 'T-400', 60, 'TI-401'), await tagWithDemoRules('LI-492', 'T-400', 60, 'LI-402')]
-    const { sampler } = simulate('steady', {}, 60, 8)
+    const { sampler } = simulate('steady', {}, 60, 7)
     const start = Date.now() - 7 * 86_400_000 - 3_600_000
     const rows = sampler.samplesUntil(7 * 86_400_000).map(s => ({
       tag: s.tag === 'TI-401' ? 'TI-491' : 'LI-492', time: new Date(start + Date.parse(s.time)).toISOString(), value: s.value,
