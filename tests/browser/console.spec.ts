@@ -178,6 +178,27 @@ describe('alarms and the shift log', () => {
     expect(minutes).toBeLessThanOrEqual(30)
   })
 
+  it('filters the history and remembers the urgent-alarm sound choice on this workstation', async () => {
+    const sound = page.getByRole('button', { name: /Sound for new urgent alarms/ })
+    await expect(sound.getAttribute('aria-pressed')).resolves.toBe('false')
+    await sound.click()
+    await expect(sound.getAttribute('aria-pressed')).resolves.toBe('true')
+    await page.reload()
+    await expect.poll(() => page.getByRole('button', { name: /Sound for new urgent alarms/ }).getAttribute('aria-pressed')).toBe('true')
+
+    await page.getByRole('radio', { name: 'History' }).click()
+    await page.getByLabel('State').selectOption('shelved')
+    const rows = page.getByTestId('alarm-row')
+    await expect.poll(() => rows.allTextContents()).toEqual([expect.stringMatching(/B-300 bus voltage low/)])
+    await page.getByLabel('State').selectOption('')
+    await page.getByLabel('Priority').selectOption('low')
+    await expect.poll(() => page.getByText('No alarms match these filters.').isVisible()).toBe(true)
+    await screenshot(page, 'console-alarms-history')
+    await expectAccessible('alarm history')
+    await page.getByRole('button', { name: 'Clear filters' }).click()
+    await page.getByRole('radio', { name: 'Active' }).click()
+  })
+
   it('writes a shift-log note about the alarm and finds it in the handover', async () => {
     const row = page.getByTestId('alarm-row').filter({ hasText: 'R-100 reactor temperature high' })
     await row.getByRole('link', { name: 'Log note' }).click()
