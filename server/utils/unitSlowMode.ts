@@ -11,6 +11,20 @@ export async function findUnitTags(db: Db, unitId: number) {
   return { unit, tags }
 }
 
+/** The unit's own rules on its slowest recovery rate (threshold lines) and their alarms in the range (markers). */
+async function findUnitRuleMarks(db: Db, unitId: number, fromS: number, toS: number) {
+  const [thresholds, markers] = await Promise.all([
+    db.$sql<{ threshold: number, comparison: string, priority: string, name: string }[]>`
+      select threshold, comparison, priority, name from alarm_rules
+      where unit_id = ${unitId} and target_kind = 'unit' and enabled and mode <> 'out_of_service'`,
+    db.$sql<{ id: number, time: number, priority: string }[]>`
+      select id, extract(epoch from raised_at)::float8 as time, priority from alarms
+      where unit_id = ${unitId} and tag_id is null and raised_at between to_timestamp(${fromS}) and to_timestamp(${toS})
+      order by raised_at`,
+  ])
+  return { thresholds, markers: markers.map(m => ({ ...m, id: Number(m.id) })) }
+}
+
 /** The unit's slow mode over the range ending now, or undefined for an unknown unit. */
 export async function readUnitSlowMode(db: Db, unitId: number, range: SeriesRange, nowMs = Date.now()) {
   const found = await findUnitTags(db, unitId)
@@ -21,5 +35,5 @@ export async function readUnitSlowMode(db: Db, unitId: number, range: SeriesRang
   const view = found.tags.length === 0
     ? null
     : buildUnitSlowMode(found.tags.map((tag, i) => ({ tagId: tag.id, samplePeriodS: tag.samplePeriodS, ...samples[i]! })), { from, to })
-  return { ...found, range, from, to, slowMode: view }
+  return { ...found, range, from, to, slowMode: view, ...await findUnitRuleMarks(db, unitId, from, to) }
 }

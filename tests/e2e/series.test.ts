@@ -3,6 +3,7 @@ import { setupBuiltServer } from '../support/server'
 import { call, signInAs } from '../support/session'
 import { createTestGateway } from '../support/gateway'
 import { ingestOu } from '../support/simulatedSamples'
+import { testSql } from '../support/db'
 
 await setupBuiltServer()
 
@@ -40,6 +41,8 @@ describe('GET /api/tags/:id/series', () => {
     expect(mean).toBeLessThan(0.86)
     expect(s.latest.value).toBeGreaterThan(340)
     expect(s.fold.kind).toBe('none')
+    // The demo's high limit on TI-101 (server/utils/demoAlarmRules.ts) is drawn on the value chart.
+    expect(s.thresholds).toContainEqual(expect.objectContaining({ measure: 'value', comparison: 'above', threshold: 400, priority: 'urgent' }))
   })
 
   it('names the bad field, 404s an unknown tag and 401s without a session', async () => {
@@ -62,6 +65,23 @@ describe('GET /api/units/:id/slow-mode', () => {
     expect(view.shares.reduce((a: number, b: number) => a + b, 0)).toBeCloseTo(1, 9)
     expect(view.history.time.length).toBe(view.history.recoveryRate.length)
     expect(view.history.time.length).toBeGreaterThan(10)
+  })
+
+  it('carries the unit\'s own recovery-rate rules as threshold lines', async () => {
+    // A limit no recovery rate reaches (the 30 s grid cannot show 1,000/s), so the scheduled
+    // pipeline never raises it, and removed afterwards so no other test sees an extra rule.
+    const sql = testSql()
+    const [rule] = await sql`insert into alarm_rules (site_id, target_kind, unit_id, name, measure, comparison, threshold, priority, class, consequence, likely_cause, operator_action)
+      select site_id, 'unit', id, 'R-100 test limit', 'recovery_rate', 'above', 1000, 'high', 'alert',
+        'Test rule.', 'Test rule.', 'Test rule.' from units where id = ${unitId} returning id`
+    try {
+      const res = await call(`/api/units/${unitId}/slow-mode?range=1h`, { cookie })
+      expect(res.body.thresholds).toEqual([{ threshold: 1000, comparison: 'above', priority: 'high', name: 'R-100 test limit' }])
+    }
+    finally {
+      await sql`delete from alarm_rules where id = ${rule!.id}`
+      await sql.end()
+    }
   })
 
   it('answers 404 for an unknown unit and 400 naming range', async () => {
