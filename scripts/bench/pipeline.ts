@@ -15,6 +15,8 @@ const TAGS = 1000
 const HISTORY = 1500
 const NEW_PER_TICK = 10
 const START = Date.UTC(2031, 0, 1)
+// The tick's default schedule in nuxt.config.ts (every 10 s): a tick must end well within it.
+const TICK_INTERVAL_MS = 10_000
 
 /** 1 Hz Ornstein–Uhlenbeck samples (k = 0.05 s⁻¹), COPY'd straight into samples. */
 async function copySamples(sql: postgres.Sql, tagIds: number[], fromSecond: number, count: number, state: Map<number, number>) {
@@ -46,7 +48,9 @@ function printTick(label: string, report: Record<string, unknown>) {
   // Tags run on a few concurrent workers, so stage times are summed over them: shares are of
   // that sum, not of the wall time.
   const summed = Object.values(stages).reduce((a, b) => a + b, 0)
-  console.log(`${label}: ${report.ms} ms wall for ${report.tags} tags, ${report.samples} samples, ${report.evaluations} evaluations`)
+  const ms = report.ms as number
+  console.log(`${label}: ${ms} ms wall for ${report.tags} tags, ${report.samples} samples, ${report.evaluations} evaluations`)
+  console.log(`  headroom: ${(TICK_INTERVAL_MS / ms).toFixed(1)} such ticks fit in the ${TICK_INTERVAL_MS / 1000} s interval (${(100 * ms / TICK_INTERVAL_MS).toFixed(0)} % of it used)`)
   for (const [stage, ms] of Object.entries(stages).sort((a, b) => b[1] - a[1]))
     console.log(`  ${stage.padEnd(24)} ${String(Math.round(ms)).padStart(7)} ms  ${(100 * ms / summed).toFixed(0).padStart(3)} % of summed stage time`)
 }

@@ -2,9 +2,12 @@ import { and, eq, isNull, sql } from 'drizzle-orm'
 import { defaultIndicatorSettings } from '#shared/pipeline/indicatorDefaults'
 import { NO_DATA_PERIODS } from '#shared/pipeline/tagStatus'
 import { indicatorSettings, tags } from '../db/schema'
+import { processTagBatch, type BatchOutcome } from './tagProcessing'
 
-/** Tags processed at once by one instance: overlaps database round trips with computation. */
-const TAG_CONCURRENCY = 4
+/** Tags claimed and stored together in one transaction: round trips are per batch, not per tag. */
+const TAG_BATCH_SIZE = 50
+/** Batches processed at once by one instance: overlaps database round trips with computation. */
+const BATCH_CONCURRENCY = 2
 
 export interface TickReport {
   tags: number
@@ -18,9 +21,10 @@ export interface TickReport {
 }
 
 /**
- * One tick of the live pipeline (DESIGN.md §4): every watched tag with samples newer than its
- * claim is processed in its own transaction; then expired shelves end, silent tags turn to
- * "no data", and the units' slow modes are refreshed. Safe to run on several instances at once.
+ * One tick of the live pipeline (DESIGN.md §4): the watched tags with samples newer than their
+ * claim are processed in batches, each batch in its own transaction; then expired shelves end,
+ * silent tags turn to "no data", and the units' slow modes are refreshed. Safe to run on several
+ * instances at once.
  */
 export async function runPipelineTick(db: Db, ctx: ChangeContext, clock = new StageClock()): Promise<TickReport> {
   const started = performance.now()
@@ -34,33 +38,43 @@ export async function runPipelineTick(db: Db, ctx: ChangeContext, clock = new St
     return rows.map(r => Number(r.tag_id))
   })
   const report: TickReport = { tags: 0, skipped: 0, samples: 0, evaluations: 0, shelvesExpired: 0, slowModes: 0, ms: 0, stages: {} }
+  const batches = Array.from({ length: Math.ceil(candidates.length / TAG_BATCH_SIZE) },
+    (_, i) => candidates.slice(i * TAG_BATCH_SIZE, (i + 1) * TAG_BATCH_SIZE))
+  const count = (tagIds: number[], done: BatchOutcome) => {
+    report.tags += done.claimed
+    report.skipped += tagIds.length - done.claimed
+    report.samples += done.samples
+    report.evaluations += done.evaluations
+  }
   let cursor = 0
   const worker = async () => {
-    while (cursor < candidates.length) {
-      const tagId = candidates[cursor++]!
-      try {
-        const done = await processTag(db, tagId, ctx, clock)
-        if (!done) report.skipped++
-        else {
-          report.tags++
-          report.samples += done.samples
-          report.evaluations += done.evaluations
-        }
-      }
-      catch (err) {
-        // One tag's failure must not stop the others; its claim did not move, so it is retried.
-        if (isDatabaseUnavailable(err)) throw err
-        console.error(`[pipeline] tag ${tagId}:`, err)
-      }
+    while (cursor < batches.length) {
+      const batch = batches[cursor++]!
+      await processIsolated(db, batch, ctx, clock, count)
     }
   }
-  await Promise.all(Array.from({ length: TAG_CONCURRENCY }, worker))
+  await Promise.all(Array.from({ length: BATCH_CONCURRENCY }, worker))
   report.shelvesExpired = await clock.run('shelve expiry', () => expireShelves(db, ctx))
   await clock.run('no-data sweep', () => markSilentTags(db))
   report.slowModes = await clock.run('unit slow mode', () => refreshSlowModes(db, ctx, clock))
   report.ms = Math.round(performance.now() - started)
   report.stages = clock.report()
   return report
+}
+
+/**
+ * Processes a batch; when it fails, its tags are retried one by one so one tag's failure does not
+ * stop the others. A failed tag's claim did not move, so the next tick retries it.
+ */
+async function processIsolated(db: Db, tagIds: number[], ctx: ChangeContext, clock: StageClock, count: (tagIds: number[], done: BatchOutcome) => void) {
+  try {
+    count(tagIds, await processTagBatch(db, tagIds, ctx, clock))
+  }
+  catch (err) {
+    if (isDatabaseUnavailable(err)) throw err
+    if (tagIds.length === 1) console.error(`[pipeline] tag ${tagIds[0]}:`, err)
+    else for (const tagId of tagIds) await processIsolated(db, [tagId], ctx, clock, count)
+  }
 }
 
 /** Claim rows, default settings and a first status for tags the pipeline has not seen yet. */

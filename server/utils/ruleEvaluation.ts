@@ -1,6 +1,7 @@
-import { and, asc, eq, inArray, isNull, lt, ne, or } from 'drizzle-orm'
+import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm'
 import { INACTIVE, stepCondition, type ConditionState } from '#shared/alarms/conditionTracker'
 import { alarmRuleStates, alarmRules, alarms } from '../db/schema'
+import { jsonParam } from './tagBatchLoad'
 
 /** A rule with its condition state, advanced in memory during a tick and stored at its end. */
 export interface RuleRuntime {
@@ -12,11 +13,13 @@ export interface RuleRuntime {
 
 const seconds = (d: Date | null) => (d ? d.getTime() / 1000 : null)
 const date = (s: number | null) => (s === null ? null : new Date(Math.round(s * 1000)))
+const iso = (s: number | null) => date(s)?.toISOString() ?? null
 
-/** The in-service-or-not rules on a tag (or a unit's own rules), with their states locked. */
-export async function loadRuleRuntimes(tx: DbTransaction, target: { tagId: number } | { unitId: number }): Promise<RuleRuntime[]> {
-  const where = 'tagId' in target
-    ? eq(alarmRules.tagId, target.tagId)
+/** The in-service-or-not rules on some tags (or a unit's own rules), with their states locked. */
+export async function loadRuleRuntimes(tx: DbTransaction, target: { tagIds: number[] } | { unitId: number }): Promise<RuleRuntime[]> {
+  if ('tagIds' in target && target.tagIds.length === 0) return []
+  const where = 'tagIds' in target
+    ? inArray(alarmRules.tagId, target.tagIds)
     : and(eq(alarmRules.unitId, target.unitId), eq(alarmRules.targetKind, 'unit'))
   const rules = await tx.select().from(alarmRules).where(and(where, eq(alarmRules.enabled, true))).orderBy(asc(alarmRules.id))
   if (rules.length === 0) return []
@@ -40,6 +43,7 @@ export async function loadRuleRuntimes(tx: DbTransaction, target: { tagId: numbe
 /**
  * Feeds one observation to a rule; an activation or return moves its alarm through the
  * lifecycle (raising a new occurrence when none is open) in the caller's transaction.
+ * Without a change it does no database work.
  */
 export async function observe(tx: DbTransaction, rt: RuleRuntime, time: number, value: number, context: () => Record<string, unknown>, ctx: ChangeContext): Promise<void> {
   const step = stepCondition(rt.rule, rt.state, time, value)
@@ -62,16 +66,22 @@ export async function observe(tx: DbTransaction, rt: RuleRuntime, time: number, 
   })
 }
 
-/** Stores the rules' condition states and refreshes the latest value shown on their open alarms. */
+/** Stores the rules' condition states and refreshes the latest value shown on their open alarms (two statements). */
 export async function saveRuleRuntimes(tx: DbTransaction, runtimes: RuleRuntime[]): Promise<void> {
-  for (const rt of runtimes) {
-    await tx.update(alarmRuleStates).set({
-      active: rt.state.active, pendingSince: date(rt.state.pendingSince), clearingSince: date(rt.state.clearingSince),
-      lastValue: rt.lastValue, lastTime: date(rt.lastTime),
-    }).where(eq(alarmRuleStates.ruleId, rt.rule.id))
-    if (rt.lastValue !== null) {
-      await tx.update(alarms).set({ lastValue: rt.lastValue, lastValueAt: date(rt.lastTime) })
-        .where(and(eq(alarms.ruleId, rt.rule.id), ne(alarms.state, 'normal'), or(isNull(alarms.lastValueAt), lt(alarms.lastValueAt, date(rt.lastTime)!))))
-    }
-  }
+  if (runtimes.length === 0) return
+  await tx.execute(sql`
+    update alarm_rule_states s set active = r.active, pending_since = r.pending_since, clearing_since = r.clearing_since,
+      last_value = r.last_value, last_time = r.last_time
+    from jsonb_to_recordset(${jsonParam(runtimes.map(rt => ({
+      rule_id: rt.rule.id, active: rt.state.active, pending_since: iso(rt.state.pendingSince), clearing_since: iso(rt.state.clearingSince),
+      last_value: rt.lastValue, last_time: iso(rt.lastTime),
+    })))}) as r(rule_id int, active boolean, pending_since timestamptz, clearing_since timestamptz, last_value float8, last_time timestamptz)
+    where s.rule_id = r.rule_id`)
+  const withValue = runtimes.filter(rt => rt.lastValue !== null)
+  if (withValue.length === 0) return
+  await tx.execute(sql`
+    update alarms a set last_value = r.last_value, last_value_at = r.last_time
+    from jsonb_to_recordset(${jsonParam(withValue.map(rt => ({ rule_id: rt.rule.id, last_value: rt.lastValue, last_time: iso(rt.lastTime) })))})
+      as r(rule_id int, last_value float8, last_time timestamptz)
+    where a.rule_id = r.rule_id and a.state <> 'normal' and (a.last_value_at is null or a.last_value_at < r.last_time)`)
 }
