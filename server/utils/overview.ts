@@ -9,7 +9,7 @@ interface OverviewRow {
   status: TagStatus | null, reason: string | null, leadingIndicator: string | null, leadingValue: number | null
   tau: number | null, pValue: number | null, foldKind: 'projected' | 'none' | null
   foldSeconds: number | null, foldLowSeconds: number | null, foldHighSeconds: number | null
-  unackedAlarms: number | null, openAlarmClass: 'alarm' | 'alert' | null, openAlarmName: string | null, statusUpdatedAt: string | null
+  unackedAlarms: number | null, openAlarmClass: 'alarm' | 'alert' | null, openAlarmName: string | null
 }
 
 /**
@@ -24,7 +24,7 @@ async function readOverviewRows(db: Db): Promise<OverviewRow[]> {
       ts.status, ts.reason, ts.leading_indicator as "leadingIndicator", ts.leading_value as "leadingValue",
       ts.tau, ts.p_value as "pValue", ts.fold_kind as "foldKind", ts.fold_seconds as "foldSeconds",
       ts.fold_low_seconds as "foldLowSeconds", ts.fold_high_seconds as "foldHighSeconds",
-      coalesce(unacked.n, 0)::int as "unackedAlarms", unacked.open_class as "openAlarmClass", unacked.open_name as "openAlarmName", ts.updated_at as "statusUpdatedAt"
+      coalesce(unacked.n, 0)::int as "unackedAlarms", unacked.open_class as "openAlarmClass", unacked.open_name as "openAlarmName"
     from tags t
     join units u on u.id = t.unit_id
     left join tag_status ts on ts.tag_id = t.id
