@@ -56,12 +56,19 @@ export async function loadRecords(tx: DbTransaction, claims: TagClaim[]): Promis
   return claims.map((c) => {
     const before = history.get(c.tag.id) ?? NO_SAMPLES
     const after = fresh.get(c.tag.id) ?? NO_SAMPLES
-    return { ...c, t: Float64Array.from([...before.t, ...after.t]), v: Float64Array.from([...before.v, ...after.v]), newCount: after.t.length }
+    return { ...c, t: joined(before.t, after.t), v: joined(before.v, after.v), newCount: after.t.length }
   })
 }
 
 interface SampleArrays { t: number[], v: number[] }
 const NO_SAMPLES: SampleArrays = { t: [], v: [] }
+
+function joined(first: number[], second: number[]): Float64Array {
+  const out = new Float64Array(first.length + second.length)
+  out.set(first)
+  out.set(second, first.length)
+  return out
+}
 
 interface SampleWindow { tagId: number, after: Date | null, until: Date | null, limit: number }
 
