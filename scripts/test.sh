@@ -41,11 +41,17 @@ BUILD_LOG="$OUT/build.log" ensure_build
 set +e
 npx vitest run --reporter=default --reporter=json --outputFile.json="$OUT/vitest.json" "$@"
 STATUS=$?
+# The type check counts as one more test; it runs on full-suite runs (no filter given).
+TYPES_PASSED=0; TYPES_FAILED=0
+if [ $# -eq 0 ]; then
+  echo "» type check (vue-tsc)…"
+  if npx vue-tsc -b --noEmit > "$OUT/typecheck.log" 2>&1; then TYPES_PASSED=1; else TYPES_FAILED=1; STATUS=1; cat "$OUT/typecheck.log"; fi
+fi
 set -e
 node -e "
   const r = JSON.parse(require('fs').readFileSync('$OUT/vitest.json', 'utf8'))
   console.log('')
-  console.log(\`\${r.numPassedTests} passed, \${r.numFailedTests} failed\` + (r.numPendingTests ? \`, \${r.numPendingTests} skipped\` : ''))
+  console.log(\`\${r.numPassedTests + $TYPES_PASSED} passed, \${r.numFailedTests + $TYPES_FAILED} failed\` + (r.numPendingTests ? \`, \${r.numPendingTests} skipped\` : ''))
   if (r.numTotalTests === 0) process.exit(1)
 " || STATUS=1
 exit $STATUS
