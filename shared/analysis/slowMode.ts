@@ -12,13 +12,14 @@ export interface SlowMode {
   shares: number[]
   /** All eigenvalues of Â. */
   eigenvalues: { re: number, im: number }[]
-  /** Â = C₁·C₀⁻¹, row-major. */
+  /** Â = C₁·C₀⁻¹ in the tags' own units, row-major. */
   transition: number[][]
 }
 
 /**
  * Fits A = C₁C₀⁻¹ with C₀ = Σd_t·d_tᵀ/(n−1) and C₁ = Σd_{t+1}·d_tᵀ/(n−1) (d = residual minus its
- * mean, per tag) and returns the slow mode. `residuals[j]` is tag j's series; all share the
+ * mean over its standard deviation, per tag) and returns the slow mode; `transition` is Â
+ * converted back to the tags' own units. `residuals[j]` is tag j's series; all share the
  * sample times, spaced `dt` seconds apart.
  */
 export function slowMode(residuals: readonly ArrayLike<number>[], dt: number): SlowMode {
@@ -26,11 +27,20 @@ export function slowMode(residuals: readonly ArrayLike<number>[], dt: number): S
   const n = residuals[0]?.length ?? 0
   if (m < 1 || residuals.some(r => r.length !== n)) throw new RangeError('every tag needs a residual series of the same length')
   if (n <= m + 1) throw new RangeError(`${n} samples cannot fit a VAR(1) of ${m} tags`)
-  const centred = residuals.map((series) => {
+  // Each tag is standardised (centred, unit variance) before the fit. The eigenvalues of Â do not
+  // change under a per-tag scaling (D·A·D⁻¹ is similar to A), but eigenvectors do: without it a
+  // tag in mol/L would get ~0 % of the mode beside one in kelvin purely through its units.
+  const sds: number[] = []
+  const centred = residuals.map((series, j) => {
     let mean = 0
     for (let t = 0; t < n; t++) mean += series[t]!
     mean /= n
-    return Float64Array.from({ length: n }, (_, t) => series[t]! - mean)
+    let ss = 0
+    for (let t = 0; t < n; t++) ss += (series[t]! - mean) ** 2
+    const sd = Math.sqrt(ss / (n - 1))
+    if (!(sd > 0)) throw new RangeError(`tag ${j} has no variation in the window`)
+    sds.push(sd)
+    return Float64Array.from({ length: n }, (_, t) => (series[t]! - mean) / sd)
   })
   const c0 = Matrix.zeros(m, m)
   const c1 = Matrix.zeros(m, m)
@@ -53,7 +63,8 @@ export function slowMode(residuals: readonly ArrayLike<number>[], dt: number): S
     recoveryRate: modulus < 1 ? -Math.log(modulus) / dt : null,
     shares: eigenvectorShares(decomposition, lead),
     eigenvalues: re.map((r, k) => ({ re: r, im: im[k]! })),
-    transition: transition.to2DArray(),
+    // Back in the tags' own units: A = S·Â_std·S⁻¹ with S = diag(sd).
+    transition: transition.to2DArray().map((row, i) => row.map((v, j) => v * sds[i]! / sds[j]!)),
   }
 }
 

@@ -56,4 +56,16 @@ describe('VAR(1) slow mode on the SCIENCE.md A4 check case', () => {
     expect(slowMode([fast, slow], 1).shares[1]).toBeGreaterThan(0.9)
     expect(slowMode([slow, fast], 1).shares[0]).toBeGreaterThan(0.9)
   })
+
+  // Linear algebra: a per-tag change of units x' = D·x turns A into D·A·D⁻¹, which has the same
+  // eigenvalues; shares must not depend on units either (mol/L beside kelvin).
+  it('gives the same rate and shares whatever units each tag is in', () => {
+    const [x1, x2] = simulateVar2(a, q, 20_000, 4)
+    const plain = slowMode([x1, x2], dt)
+    const rescaled = slowMode([x1.map(v => v * 1e-3), x2.map(v => v * 250 + 300)], dt)
+    expect(rescaled.recoveryRate).toBeCloseTo(plain.recoveryRate!, 10)
+    rescaled.shares.forEach((share, i) => expect(share).toBeCloseTo(plain.shares[i]!, 10))
+    expect(rescaled.transition[0]![1]).toBeCloseTo(plain.transition[0]![1]! * 1e-3 / 250, 10)
+  })
 })
+
