@@ -4,7 +4,8 @@ import { can, type Capability, type Role } from '#shared/utils/roles'
 
 /** 401 unless signed in. Every protected route starts here or with requireRole. */
 export async function requireUser(event: H3Event): Promise<User> {
-  const { user } = await requireUserSession(event, { message: 'Sign in required' })
+  const { user, id } = await requireUserSession(event, { message: 'Sign in required' })
+  if (id && await isSessionRevoked(useDb(), id)) throw createError({ statusCode: 401, message: 'This session was signed out; sign in again' })
   return user
 }
 

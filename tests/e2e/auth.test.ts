@@ -60,5 +60,9 @@ describe('sign-in and role checks on the server', () => {
     expect(out.status).toBe(200)
     const cleared = out.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
     expect((await call('/api/units', { cookie: cleared })).status).toBe(401)
+    // A copy of the old cookie (another tab, a stolen header) is refused too.
+    const replayed = await call('/api/units', { cookie })
+    expect(replayed.status).toBe(401)
+    expect(replayed.body.message).toMatch(/signed out/)
   })
 })

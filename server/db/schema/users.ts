@@ -21,3 +21,10 @@ export const signInFailures = pgTable('sign_in_failures', {
   address: text('address').notNull(),
   at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
 }, t => [index('sign_in_failures_email_at').on(t.email, t.at), index('sign_in_failures_address_at').on(t.address, t.at)])
+
+// Sessions are sealed cookies: signing out clears the browser's copy, and this list makes any
+// other copy of that cookie useless too. Rows older than the session lifetime can go.
+export const revokedSessions = pgTable('revoked_sessions', {
+  sessionId: text('session_id').primaryKey(),
+  revokedAt: timestamp('revoked_at', { withTimezone: true }).notNull().defaultNow(),
+})
