@@ -45,7 +45,9 @@ STATUS=$?
 TYPES_PASSED=0; TYPES_FAILED=0
 if [ $# -eq 0 ]; then
   echo "» type check (vue-tsc)…"
-  if npx vue-tsc -b --noEmit > "$OUT/typecheck.log" 2>&1; then TYPES_PASSED=1; else TYPES_FAILED=1; STATUS=1; cat "$OUT/typecheck.log"; fi
+  # `nuxt build` writes its types under node_modules/.cache; tsconfig.json reads .nuxt/, which
+  # only `nuxt prepare` writes. Without it a clean clone would check nothing.
+  if npx nuxt prepare > "$OUT/typecheck.log" 2>&1 && npx vue-tsc -b --noEmit >> "$OUT/typecheck.log" 2>&1; then TYPES_PASSED=1; else TYPES_FAILED=1; STATUS=1; cat "$OUT/typecheck.log"; fi
 fi
 set -e
 node -e "
