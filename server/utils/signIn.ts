@@ -1,14 +1,15 @@
-import { and, count, eq, gt, lt } from 'drizzle-orm'
+import { and, eq, gt, lt, or, sql } from 'drizzle-orm'
 import { signInFailures, users } from '../db/schema'
-
 
 export async function signInBlocked(db: Db, email: string, address: string): Promise<boolean> {
   const since = new Date(Date.now() - SIGN_IN_LIMITS.windowMinutes * 60_000)
-  const [byAccount] = await db.select({ n: count() }).from(signInFailures)
-    .where(and(eq(signInFailures.email, email), gt(signInFailures.at, since)))
-  const [byAddress] = await db.select({ n: count() }).from(signInFailures)
-    .where(and(eq(signInFailures.address, address), gt(signInFailures.at, since)))
-  return byAccount!.n >= SIGN_IN_LIMITS.perAccount || byAddress!.n >= SIGN_IN_LIMITS.perAddress
+  // Both counts in one pass over the window's failures.
+  const [counts] = await db.select({
+    byAccount: sql<number>`count(*) filter (where ${signInFailures.email} = ${email})`.mapWith(Number),
+    byAddress: sql<number>`count(*) filter (where ${signInFailures.address} = ${address})`.mapWith(Number),
+  }).from(signInFailures)
+    .where(and(gt(signInFailures.at, since), or(eq(signInFailures.email, email), eq(signInFailures.address, address))))
+  return counts!.byAccount >= SIGN_IN_LIMITS.perAccount || counts!.byAddress >= SIGN_IN_LIMITS.perAddress
 }
 
 export async function recordSignInFailure(db: Db, email: string, address: string): Promise<void> {

@@ -15,18 +15,16 @@ function badRequest(error: z.ZodError): never {
   })
 }
 
+type SafeReader = (event: H3Event, schema: never) => Promise<unknown>
+
 // h3-zod's throwing variants answer with a raw issue dump; these name each field in words.
-export async function validBody<T extends z.ZodTypeAny>(event: H3Event, schema: T): Promise<z.output<T>> {
-  const result = await useSafeValidatedBody(event, schema as never) as z.SafeParseReturnType<unknown, z.output<T>>
-  return result.success ? result.data : badRequest(result.error)
+function validWith(read: SafeReader) {
+  return async <T extends z.ZodTypeAny>(event: H3Event, schema: T): Promise<z.output<T>> => {
+    const result = await read(event, schema as never) as z.SafeParseReturnType<unknown, z.output<T>>
+    return result.success ? result.data : badRequest(result.error)
+  }
 }
 
-export async function validQuery<T extends z.ZodTypeAny>(event: H3Event, schema: T): Promise<z.output<T>> {
-  const result = await useSafeValidatedQuery(event, schema as never) as z.SafeParseReturnType<unknown, z.output<T>>
-  return result.success ? result.data : badRequest(result.error)
-}
-
-export async function validParams<T extends z.ZodTypeAny>(event: H3Event, schema: T): Promise<z.output<T>> {
-  const result = await useSafeValidatedParams(event, schema as never) as z.SafeParseReturnType<unknown, z.output<T>>
-  return result.success ? result.data : badRequest(result.error)
-}
+export const validBody = validWith(useSafeValidatedBody as SafeReader)
+export const validQuery = validWith(useSafeValidatedQuery as SafeReader)
+export const validParams = validWith(useSafeValidatedParams as SafeReader)
