@@ -18,7 +18,8 @@ export async function findTagHeader(db: Db, id: number): Promise<TagHeader | und
       t.range_low as "rangeLow", t.range_high as "rangeHigh", u.id as "unitId", u.code as "unitCode", u.name as "unitName",
       case when s.tag_id is null then null else json_build_object('windowSamples', s.window_samples,
         'detrendBandwidthS', s.detrend_bandwidth_s, 'trendWindowSamples', s.trend_window_samples,
-        'indicatorStep', s.indicator_step, 'surrogates', s.surrogates, 'alpha', s.alpha) end as stored
+        'minTrendSamples', s.min_trend_samples, 'indicatorStep', s.indicator_step, 'evaluateEvery', s.evaluate_every,
+        'surrogates', s.surrogates, 'alpha', s.alpha) end as stored
     from tags t join units u on u.id = t.unit_id left join indicator_settings s on s.tag_id = t.id
     where t.id = ${id}`
   return row
@@ -65,9 +66,12 @@ export async function readTagSeries(db: Db, tagId: number, range: SeriesRange, n
   const settings = chartIndicatorSettings(tag.samplePeriodS, tag.stored)
   const to = nowMs / 1000
   const from = to - SERIES_RANGES[range]
-  // One window (and the trend filter's warm-up, also one window) before the range, so the
-  // indicators cover the whole displayed range.
-  const { times, values } = await loadSamplesSince(db, tagId, from - 2 * settings.windowSeconds)
+  // One window (and the trend filter's warm-up) before the range, so the indicators cover the
+  // whole displayed range, and at least the live trend window before now, so the judgement at
+  // the newest sample sees what the live pipeline sees.
+  const period = tag.samplePeriodS
+  const judged = (settings.live.trendWindowSamples * period) + settings.live.detrendBandwidthS
+  const { times, values } = await loadSamplesSince(db, tagId, Math.min(from - settings.windowSeconds - settings.live.detrendBandwidthS, to - judged))
   const view = buildTagSeries({ times, values, grid: { from, to, count: DISPLAY_POINTS }, settings, seed: tagId })
   const rules = await findTagRuleMarks(db, tagId, from, to)
   const { stored: _stored, ...header } = tag

@@ -1,57 +1,45 @@
-// The alarm-worthy criterion, shared by the live task, replays and the detection benchmark.
-// It alarms on recovery-rate evidence only (SCIENCE.md A5 item 11): a significant rise of AR1
-// (equivalently a fall of k = −ln AR1/Δt) with a variance that is not falling. A variance rise
-// without it is reported as "noise level changed", never as slowing down. The evidence must hold
-// for an on-delay of consecutive evaluations and clears after an off-delay (ISA-18.2-style
-// hysteresis, SCIENCE.md D), which limits chattering from re-testing overlapping data.
-import type { TrendTestResult } from './trendTest'
-
-export interface EarlyWarningRule {
-  /** Surrogate p at or below which the AR1 trend counts (one-sided, rising). */
-  alpha: number
-  /** Kendall τ of AR1 over the trend window must also reach this. */
-  minTau: number
-  /** Consecutive evaluations with evidence before the alarm raises. */
-  onDelay: number
-  /** Consecutive evaluations without evidence before it clears. */
-  offDelay: number
-}
+// The alarm-worthy criterion of one evaluation, shared by the live task, replays and the
+// benchmarks. Slowing down is judged on recovery-rate evidence (SCIENCE.md A5 item 11): the
+// stability-trend test says the AR(1) coefficient is rising (recovery slowing), and the variance
+// must not be falling, as both rise together near a fold (Ditlevsen & Johnsen 2010, GRL
+// 37:L19703). A variance rise on its own is "noise level changed", never slowing down. The rule's
+// on-delay and off-delay (ISA-18.2-style hysteresis, SCIENCE.md D) then act on these verdicts.
+import { normalUpperTail } from './normal'
+import type { StabilityTrendTest } from './stabilityTrend'
 
 export type TrendEvidence = 'slowing down' | 'noise level changed' | 'no trend'
 
-/** What one evaluation's trend tests say. */
-export function judgeTrends(ar1: TrendTestResult, variance: TrendTestResult, rule: EarlyWarningRule): TrendEvidence {
-  if (ar1.p <= rule.alpha && ar1.tau >= rule.minTau && variance.tau > 0) return 'slowing down'
-  if (variance.p <= rule.alpha) return 'noise level changed'
-  return 'no trend'
+export interface VarianceChange {
+  /** ln(mean square of the later half / of the earlier half) about the window mean. */
+  logRatio: number
+  /** One-sided p for a rise. */
+  p: number
 }
 
-/** On-delay / off-delay latch over successive evaluations. */
-export class EarlyWarningLatch {
-  private active = false
-  private streak = 0
+/**
+ * Compares the variance of the window's two halves. For an AR(1) with coefficient φ, the log of a
+ * sample variance over m values has variance ≈ 2(1 + φ²)/((1 − φ²)·m) (Bartlett's large-sample
+ * formula [from memory]), so the difference of two halves is referred to a normal with twice that.
+ */
+export function varianceChange(values: ArrayLike<number>, phi: number): VarianceChange {
+  const n = values.length
+  const half = Math.floor(n / 2)
+  let mean = 0
+  for (let i = 0; i < n; i++) mean += values[i]!
+  mean /= n
+  let early = 0, late = 0
+  for (let i = 0; i < half; i++) early += (values[i]! - mean) ** 2
+  for (let i = n - half; i < n; i++) late += (values[i]! - mean) ** 2
+  if (!(early > 0) || !(late > 0)) return { logRatio: Number.NaN, p: 1 }
+  const logRatio = Math.log(late / early)
+  const f = Math.min(Math.abs(Number.isFinite(phi) ? phi : 0), 0.99)
+  const sd = Math.sqrt(2 * 2 * (1 + f * f) / ((1 - f * f) * half))
+  return { logRatio, p: normalUpperTail(logRatio / sd) }
+}
 
-  constructor(private readonly rule: EarlyWarningRule) {}
-
-  get isActive(): boolean {
-    return this.active
-  }
-
-  /** Feeds one evaluation; returns 'raised' or 'cleared' on a change, else null. */
-  update(evidence: TrendEvidence): 'raised' | 'cleared' | null {
-    const holding = evidence === 'slowing down'
-    // The streak counts evaluations that argue for changing the current state.
-    this.streak = holding !== this.active ? this.streak + 1 : 0
-    if (!this.active && this.streak >= this.rule.onDelay) {
-      this.active = true
-      this.streak = 0
-      return 'raised'
-    }
-    if (this.active && this.streak >= this.rule.offDelay) {
-      this.active = false
-      this.streak = 0
-      return 'cleared'
-    }
-    return null
-  }
+/** What one evaluation's tests say. */
+export function judgeEvidence(stability: StabilityTrendTest, variance: VarianceChange, alpha: number): TrendEvidence {
+  if (stability.p <= alpha && stability.fit.slope > 0 && variance.logRatio > 0) return 'slowing down'
+  if (variance.p <= alpha) return 'noise level changed'
+  return 'no trend'
 }

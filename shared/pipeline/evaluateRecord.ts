@@ -1,15 +1,18 @@
 // One tag's share of a pipeline tick, as pure computation over the samples the tick loaded:
-// causal detrending, then at every `evaluateEvery`-th new sample the quality gate, the window's
-// indicators, the surrogate trend tests with the early-warning judgement, and the fold horizon.
-import { causalLocalLinearTrend } from '../analysis/detrend'
-import { judgeTrends, type TrendEvidence } from '../analysis/earlyWarningDecision'
-import { foldHorizon, recoveryRateSe, type RatePoint } from '../analysis/foldHorizon'
+// causal detrending restarted after steps, then at every `evaluateEvery`-th new sample the
+// quality gate, the window's indicators, the stability-trend test with the early-warning
+// judgement, and the fold horizon. Windows expand: a tag is judged once `minTrendSamples`
+// usable samples follow its warm-up, and the trend window grows from there to its full size.
+import { judgeEvidence, varianceChange, type TrendEvidence } from '../analysis/earlyWarningDecision'
+import { foldProfile } from '../analysis/foldProfile'
 import { indicatorSeries } from '../analysis/indicatorSeries'
 import { indicatorsFromSums } from '../analysis/indicators'
+import { trendTau } from '../analysis/kendall'
 import { accurateMean, centredSums } from '../analysis/moments'
 import { checkQuality, DEFAULT_QUALITY_LIMITS } from '../analysis/quality'
 import { createRng } from '../analysis/random'
-import { surrogateTrendTest } from '../analysis/trendTest'
+import { segmentedResiduals } from '../analysis/segmentedResiduals'
+import { stabilityTrendTest } from '../analysis/stabilityTrend'
 import type { IndicatorSettings } from './indicatorDefaults'
 
 export interface EvaluationPoint {
@@ -33,6 +36,9 @@ export interface EvaluationPoint {
   fold: { kind: 'projected', seconds: number, lowSeconds: number, highSeconds: number } | { kind: 'none' }
 }
 
+/** The quality note of an evaluation inside the warm-up after a detected step. */
+export const SETTLING = 'settling after a step'
+
 export type PipelineStage = 'detrend' | 'quality and indicators' | 'trend tests' | 'fold horizon'
 /** Measures a synchronous stage; the engine's stages are PipelineStage, callers may add their own. */
 export type StageTimer = <T>(stage: PipelineStage | (string & {}), work: () => T) => T
@@ -51,34 +57,37 @@ export interface RecordInput {
   settings: IndicatorSettings
 }
 
-/** Significance of the fold-horizon slope and coverage of its band. */
-const FOLD_ALPHA = 0.01
+/**
+ * The fold horizon is fitted once the stability trend reaches this p (looser than the alarm's α:
+ * it says where a fold would lie, the alarm says whether to act), with a 90% band.
+ */
+const FOLD_GATE_P = 0.05
 const FOLD_CONFIDENCE = 0.9
 
 /** Evaluates a tag over its new samples; returns the evaluation points and the carried count. */
 export function evaluateRecord(input: RecordInput, time: StageTimer = untimed): { points: EvaluationPoint[], samplesSinceEvaluation: number } {
   const { times, values, settings } = input
-  const residuals = time('detrend', () => {
-    const trend = causalLocalLinearTrend(times, values, settings.detrendBandwidthS)
-    return Float64Array.from(values, (v, i) => v - trend[i]!)
-  })
+  const detrended = time('detrend', () => segmentedResiduals(times, values, settings.detrendBandwidthS))
   const points: EvaluationPoint[] = []
   let counter = input.samplesSinceEvaluation
   for (let i = input.firstNew; i < values.length; i++) {
     if (++counter < settings.evaluateEvery) continue
     counter = 0
-    points.push(evaluateAt(input, residuals, i, time))
+    points.push(evaluateAt(input, detrended.residuals, detrended.usableFrom, i, time))
   }
   return { points, samplesSinceEvaluation: counter }
 }
 
-function evaluateAt(input: RecordInput, residuals: Float64Array, end: number, time: StageTimer): EvaluationPoint {
+function evaluateAt(input: RecordInput, residuals: Float64Array, usableFrom: Int32Array, end: number, time: StageTimer): EvaluationPoint {
   const { times, values, settings } = input
-  const w = settings.windowSamples
-  const start = end + 1 - w
   const empty = emptyPoint(times[end]!)
-  if (start < 0) return { ...empty, quality: `too few samples: ${end + 1} of ${w}` }
-  const limits = { ...DEFAULT_QUALITY_LIMITS, minSamples: Math.min(DEFAULT_QUALITY_LIMITS.minSamples, w), maxGapSeconds: 10 * input.samplePeriodS }
+  const usable = usableFrom[end]!
+  if (end < usable) {
+    return { ...empty, quality: usableFrom[0] !== usable ? SETTLING : `warming up: ${end + 1} samples` }
+  }
+  const start = Math.max(end + 1 - settings.windowSamples, usable)
+  const w = end + 1 - start
+  const limits = { ...DEFAULT_QUALITY_LIMITS, minSamples: Math.min(DEFAULT_QUALITY_LIMITS.minSamples, settings.windowSamples), maxGapSeconds: 10 * input.samplePeriodS }
   const current = time('quality and indicators', () => {
     const verdict = checkQuality(times.subarray(start, end + 1), values.subarray(start, end + 1), limits)
     if (!verdict.ok) return { quality: `${verdict.failed}: ${verdict.reason}` as const, indicators: null }
@@ -102,56 +111,46 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, end: number, ti
     skewness: finite(ind.skewness),
     kurtosis: finite(ind.kurtosis),
   }
-  const trendStart = end + 1 - settings.trendWindowSamples
-  if (trendStart < 0) return point
+  const trendStart = Math.max(end + 1 - settings.trendWindowSamples, usable)
+  if (end + 1 - trendStart < settings.minTrendSamples) return point
   const trendTimes = times.subarray(trendStart, end + 1)
   const trendResiduals = residuals.subarray(trendStart, end + 1)
-  const tests = time('trend tests', () => surrogateTrendTest(trendTimes, trendResiduals, {
-    window: { kind: 'count', samples: w },
-    step: settings.indicatorStep,
-    surrogates: settings.surrogates,
-    kind: 'ar1',
-    indicators: ['ar1', 'variance'],
-  }, createRng(seedFor(input.tagId, times[end]!))))
-  const evidence = judgeTrends(tests.ar1!, tests.variance!, { alpha: settings.alpha, minTau: settings.minTau, onDelay: 1, offDelay: 1 })
-  const fold = time('fold horizon', () => foldOf(trendTimes, trendResiduals, settings, times[end]!))
+  const judged = time('trend tests', () => {
+    const stability = stabilityTrendTest(trendResiduals, settings.surrogates, createRng(seedFor(input.tagId, times[end]!)))
+    const variance = varianceChange(trendResiduals, stability.fit.phiMiddle)
+    return { stability, variance, evidence: judgeEvidence(stability, variance, settings.alpha) }
+  })
+  const taus = time('trend tests', () => displayTaus(trendTimes, trendResiduals, settings))
+  const rising = judged.stability.fit.slope > 0
+  const fold = rising && judged.stability.p <= FOLD_GATE_P
+    ? time('fold horizon', () => foldOf(trendTimes, trendResiduals, times[end]!))
+    : { kind: 'none' as const }
   return {
     ...point,
-    tauAr1: finite(tests.ar1!.tau),
-    pAr1: tests.ar1!.p,
-    tauVariance: finite(tests.variance!.tau),
-    pVariance: tests.variance!.p,
-    evidence,
+    tauAr1: taus.ar1,
+    pAr1: judged.stability.p,
+    tauVariance: taus.variance,
+    pVariance: judged.variance.p,
+    evidence: judged.evidence,
     fold,
   }
 }
 
 /**
- * The fold fit uses shorter windows than the indicators: a line needs several independent
- * estimates (with the 3 windows of the trend window it had one degree of freedom left, and a
- * projection needed t > 31.8). Six windows leave four; their k̂ is √2 noisier than a 300-sample one.
+ * Kendall τ of rolling AR1 and variance over the trend window, for people reading the charts:
+ * the published summary of a trend (SCIENCE.md A3 step 4). The decision does not use them.
  */
-const FOLD_WINDOWS = 6
-function foldWindowSamples(settings: IndicatorSettings): number {
-  return Math.floor(settings.trendWindowSamples / FOLD_WINDOWS)
+function displayTaus(times: Float64Array, residuals: Float64Array, settings: IndicatorSettings) {
+  const window = Math.min(settings.windowSamples, Math.floor(residuals.length / 2))
+  const series = indicatorSeries(times, residuals, { window: { kind: 'count', samples: window }, step: settings.indicatorStep })
+  if (series.time.length < 3) return { ar1: null, variance: null }
+  return { ar1: finite(trendTau(series.ar1)), variance: finite(trendTau(series.variance)) }
 }
 
-/** Recovery rates of the windows inside the trend window, extrapolated to zero (SCIENCE.md A1). */
-function foldOf(times: Float64Array, residuals: Float64Array, settings: IndicatorSettings, now: number): EvaluationPoint['fold'] {
-  const w = foldWindowSamples(settings)
-  const series = indicatorSeries(times, residuals, { window: { kind: 'count', samples: w }, step: settings.indicatorStep })
-  const dt = (times[times.length - 1]! - times[0]!) / (times.length - 1)
-  const points: RatePoint[] = []
-  // A window's rate describes its middle, not its newest sample: labelling it at the end would
-  // shift the whole line, and the projected fold, half a window late.
-  const halfWindow = (w - 1) * dt / 2
-  series.time.forEach((t, k) => {
-    const rate = series.recoveryRate[k]!
-    if (Number.isFinite(rate)) points.push({ time: t - halfWindow, rate, se: recoveryRateSe(rate, dt, w) })
-  })
-  const horizon = foldHorizon(points, { windowSeconds: w * dt, alpha: FOLD_ALPHA, confidence: FOLD_CONFIDENCE, now })
-  if (horizon.kind !== 'fold in view') return { kind: 'none' }
-  return { kind: 'projected', seconds: horizon.horizon, lowSeconds: horizon.low - now, highSeconds: horizon.high - now }
+function foldOf(times: Float64Array, residuals: Float64Array, now: number): EvaluationPoint['fold'] {
+  const profile = foldProfile(times, residuals, { confidence: FOLD_CONFIDENCE })
+  if (profile.kind !== 'fold in view') return { kind: 'none' }
+  return { kind: 'projected', seconds: profile.foldTime - now, lowSeconds: profile.low - now, highSeconds: profile.high - now }
 }
 
 function emptyPoint(time: number): EvaluationPoint {

@@ -3,31 +3,45 @@
 export interface IndicatorSettings {
   windowSamples: number
   detrendBandwidthS: number
+  /** Largest trend window; the window grows to it from `minTrendSamples`. */
   trendWindowSamples: number
+  /** Usable samples (after warm-up) before a tag's first early-warning judgement. */
+  minTrendSamples: number
   indicatorStep: number
   evaluateEvery: number
   surrogates: number
   alpha: number
-  minTau: number
 }
+
+/**
+ * The trend window expands from 200 usable samples (a judgement within a few hundred samples of a
+ * start, a step or a new tag) to 1,200 (longer windows add power on slow approaches; the cost of a
+ * bootstrap grows with them). Evaluated every 20 samples at α 0.01, with the rule's on-delay of one
+ * evaluation (two verdicts in a row). Chosen by the whole-procedure study in
+ * scripts/calibrateEarlyWarning.ts over 60 seeds per kind (numbers beside EARLY_WARNING_DELAYS).
+ */
+const TREND_WINDOW_SAMPLES = 1200
+const MIN_TREND_SAMPLES = 200
+const EVALUATE_EVERY = 20
+const ALPHA = 0.01
 
 export function defaultIndicatorSettings(samplePeriodS: number): IndicatorSettings {
   if (!(samplePeriodS > 0)) throw new RangeError(`sample period must be positive, got ${samplePeriodS}`)
   return {
     // SE(r₁) ≈ √((1 − φ²)/n) (SCIENCE.md A2): 300 samples keep it under 0.06.
     windowSamples: 300,
-    // Wide against the fluctuations measured, so the smoother does not absorb them (A3 step 1).
-    detrendBandwidthS: 100 * samplePeriodS,
-    // Three windows: enough indicator points for Kendall's τ while staying recent.
-    trendWindowSamples: 900,
+    // Wide against the fluctuations measured, so the smoother does not absorb them (A3 step 1),
+    // narrow enough that a mean curving over a few hundred samples leaves little behind (a 100-
+    // sample bandwidth left a slow sine drift flagged on most seeds). Also the warm-up discarded
+    // after a start or a step.
+    detrendBandwidthS: 50 * samplePeriodS,
+    trendWindowSamples: TREND_WINDOW_SAMPLES,
+    minTrendSamples: MIN_TREND_SAMPLES,
     indicatorStep: 10,
-    evaluateEvery: 60,
+    evaluateEvery: EVALUATE_EVERY,
     // 99 surrogates resolve p down to 0.01 = (1 + 0)/(99 + 1) (Davison & Hinkley 1997 [from memory]).
     surrogates: 99,
-    alpha: 0.01,
-    // Does not bind in practice: every null or approach evaluation with p ≤ 0.01 had τ ≥ 0.7
-    // (detection study); kept as a floor for tags given fewer surrogates.
-    minTau: 0.3,
+    alpha: ALPHA,
   }
 }
 
@@ -42,15 +56,18 @@ export interface EvaluationDelays {
 }
 
 /**
- * The slowing-down alert raises only after the evidence has held at 4 consecutive evaluations
- * (on-delay 3 evaluation intervals). Each single test is calibrated (p ≤ 0.01 on 1.2% of 1,232
- * steady-unit evaluations), but a tag is re-tested 168 times a week on overlapping data (SCIENCE.md
- * A5 item 12). Whole-procedure study (scripts/bench/detection.ts, 60 s samples, 28 steady-unit and
- * 36 OU-null tag-weeks): on-delay 1 gave 10 steady + 7 OU false alerts (0.27 per tag-week); on-delay
- * 2 gave 3 + 1; on-delay 3 gave 1 + 0 (0.016 per tag-week); on-delay 4 gave 0 but detected the
- * demo bus in 6/8 runs with a 5 min median lead against 7 min. Null streaks of evidence rarely
- * reach 4 because the 900-sample trend window moves on by 60 samples per evaluation, while a real
- * approach keeps the evidence. α below 0.01 would need several times more surrogates per tick.
+ * The slowing-down alert raises when two evaluations in a row (on-delay one evaluation interval)
+ * say "slowing down". Each look is a test at α 0.01, but a tag is re-tested every 20 samples on
+ * overlapping data (SCIENCE.md A5 item 12), so α and the on-delay were set on whole records.
+ * Study (scripts/calibrateEarlyWarning.ts, SEEDS=150: 500-sample records) — records alerted:
+ *   α 0.01, on-delay 1 (chosen): harvesting fold 42/150; nulls ≤ 5% each: harvesting at fixed h 3,
+ *     AR(1) φ 0.3/0.6/0.9 2/3/6, noise step ×2 2, linear drift 4, accelerating 3, slow sine 1,
+ *     added white noise 7
+ *   α 0.02, on-delay 1: fold 51/150, but nulls up to 10/150 (white noise), 9/150 (AR(1))
+ *   α 0.05, on-delay 2: fold 58/150, nulls up to 14/150
+ * Detection power on short records is the open problem: records that stop far from the fold are
+ * missed (scripts/bench/earlyWarning.ts lists them). The off-delay keeps a raised alert through a
+ * few weaker evaluations.
  */
-export const EARLY_WARNING_DELAYS: EvaluationDelays = { onDelayEvaluations: 3, offDelayEvaluations: 4 }
+export const EARLY_WARNING_DELAYS: EvaluationDelays = { onDelayEvaluations: 1, offDelayEvaluations: 4 }
 export const FOLD_IN_VIEW_DELAYS: EvaluationDelays = { onDelayEvaluations: 1, offDelayEvaluations: 3 }

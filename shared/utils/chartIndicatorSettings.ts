@@ -1,43 +1,29 @@
 import type { DetrendSpec, WindowSpec } from '../analysis/types'
+import { defaultIndicatorSettings, type IndicatorSettings } from '../pipeline/indicatorDefaults'
 
 /** What the tag's stored indicator settings (table indicator_settings) say, when it has a row. */
-export interface StoredIndicatorSettings {
-  windowSamples: number
-  detrendBandwidthS: number
-  trendWindowSamples: number
-  indicatorStep: number
-  surrogates: number
-  alpha: number
-}
+export type StoredIndicatorSettings = IndicatorSettings
 
 export interface ChartIndicatorSettings {
   window: Extract<WindowSpec, { kind: 'count' }>
   detrend: DetrendSpec
   /** Seconds one window spans at the tag's sample period. */
   windowSeconds: number
-  trendWindowSamples: number
-  indicatorStep: number
-  surrogates: number
-  alpha: number
+  /** The live pipeline's settings, for the judgement at the newest sample. */
+  live: IndicatorSettings
 }
 
 /**
- * The charts use the tag's own settings, so they show what the live pipeline judges. A tag the
- * pipeline has not seen yet gets the pipeline's starting values: 300-sample windows (SE of r₁
- * under 0.06, SCIENCE.md A2), a trend 100 sample periods wide, a 900-sample trend window, 99
- * surrogates. The causal local-linear trend is the live path's, so chart and live values agree.
+ * The charts use the tag's own settings, so they show what the live pipeline judges; a tag the
+ * pipeline has not seen yet gets the pipeline's starting values (one owner: indicatorDefaults).
+ * The causal local-linear trend is the live path's, so chart and live values agree.
  */
 export function chartIndicatorSettings(samplePeriodS: number, stored?: StoredIndicatorSettings | null): ChartIndicatorSettings {
-  const s = stored ?? {
-    windowSamples: 300, detrendBandwidthS: 100 * samplePeriodS, trendWindowSamples: 900, indicatorStep: 10, surrogates: 99, alpha: 0.01,
-  }
+  const live = stored ?? defaultIndicatorSettings(samplePeriodS)
   return {
-    window: { kind: 'count', samples: s.windowSamples },
-    detrend: { kind: 'localLinear', bandwidth: s.detrendBandwidthS },
-    windowSeconds: s.windowSamples * samplePeriodS,
-    trendWindowSamples: s.trendWindowSamples,
-    indicatorStep: s.indicatorStep,
-    surrogates: s.surrogates,
-    alpha: s.alpha,
+    window: { kind: 'count', samples: live.windowSamples },
+    detrend: { kind: 'localLinear', bandwidth: live.detrendBandwidthS },
+    windowSeconds: live.windowSamples * samplePeriodS,
+    live,
   }
 }

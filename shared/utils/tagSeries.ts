@@ -1,10 +1,8 @@
 // What the tag-detail charts show, computed from raw samples: the indicators run over every raw
 // sample with the engine's own functions; only the result is reduced to display buckets.
 import { detrend } from '../analysis/detrend'
-import { foldHorizon, recoveryRateSe } from '../analysis/foldHorizon'
 import { rollingIndicators } from '../analysis/pipeline'
-import { createRng } from '../analysis/random'
-import { surrogateTrendTest } from '../analysis/trendTest'
+import { evaluateRecord, type EvaluationPoint } from '../pipeline/evaluateRecord'
 import type { ChartIndicatorSettings as IndicatorSettings } from './chartIndicatorSettings'
 import { bucketOf, bucketSamples, toJsonNumbers, type BucketGrid } from './timeBuckets'
 
@@ -25,7 +23,7 @@ export interface TagSeriesView {
   variance: (number | null)[]
   ar1: (number | null)[]
   recoveryRate: (number | null)[]
-  /** √(slope·(t − t_fold)): the fitted k² line from the end of the range toward the projected fold. */
+  /** The fitted recovery rate from the end of the range toward the projected fold. */
   recoveryProjection: (number | null)[]
   fold: FoldView
   significance: { ar1: TrendSignificance, variance: TrendSignificance } | null
@@ -39,13 +37,10 @@ export interface TagSeriesInput {
   values: Float64Array
   grid: BucketGrid
   settings: IndicatorSettings
-  /** Seed of the surrogate test, so a reload shows the same p-value for the same data. */
+  /** The tag id: the live path seeds its bootstrap from it, so chart and live p agree. */
   seed: number
 }
 
-// Fold projection: trailing twenty windows of rate points, falling slope significant at the
-// tag's alpha, a 90 % band (SCIENCE.md A1).
-const FOLD_WINDOWS = 20
 const PROJECTION_POINTS = 40
 
 export function buildTagSeries(input: TagSeriesInput): TagSeriesView {
@@ -55,8 +50,9 @@ export function buildTagSeries(input: TagSeriesInput): TagSeriesView {
   const pick = (series: Float64Array) => Array.from(buckets.last, i => (i < 0 ? null : series[i]!))
   const sampleCount = countInGrid(times, grid)
   const indicatorCols = indicatorBuckets(input, sampleCount)
-  const fold = projectFold(indicatorCols.rates, settings)
-  const projection = projectionPoints(fold, grid)
+  const judgement = judgementAtNewest(input)
+  const fold = foldView(judgement)
+  const projection = projectionPoints(fold, indicatorCols.newestRate, grid)
   const nulls = (n: number) => Array.from({ length: n }, () => null)
   const extra = projection.time.length
   return {
@@ -70,8 +66,10 @@ export function buildTagSeries(input: TagSeriesInput): TagSeriesView {
     ar1: [...indicatorCols.ar1, ...nulls(extra)],
     recoveryRate: [...indicatorCols.recoveryRate, ...nulls(extra)],
     recoveryProjection: [...nulls(grid.count - 1), projection.startRate, ...projection.rate],
-    fold: fold.view,
-    significance: trendSignificance(times, residuals, settings, input.seed),
+    fold,
+    significance: judgement && judgement.pAr1 !== null
+      ? { ar1: { tau: judgement.tauAr1, p: judgement.pAr1 }, variance: { tau: judgement.tauVariance, p: judgement.pVariance } }
+      : null,
     sampleCount,
   }
 }
@@ -89,11 +87,10 @@ function indicatorBuckets(input: TagSeriesInput, samplesInRange: number) {
   const variance = empty()
   const ar1 = empty()
   const recoveryRate = empty()
-  const rates: { time: number, rate: number, se: number }[] = []
-  if (times.length < settings.window.samples) return { variance, ar1, recoveryRate, rates }
+  let newestRate: number | null = null
+  if (times.length < settings.window.samples) return { variance, ar1, recoveryRate, newestRate }
   const step = Math.max(1, Math.floor(samplesInRange / grid.count))
   const series = rollingIndicators(times, values, { window: settings.window, detrend: settings.detrend, step })
-  const dt = settings.windowSeconds / settings.window.samples
   for (let k = 0; k < series.time.length; k++) {
     const b = bucketOf(grid, series.time[k]!)
     if (b < 0) continue
@@ -101,53 +98,44 @@ function indicatorBuckets(input: TagSeriesInput, samplesInRange: number) {
     variance[b] = finite(series.variance[k]!)
     ar1[b] = finite(series.ar1[k]!)
     recoveryRate[b] = finite(series.recoveryRate[k]!)
-    const rate = series.recoveryRate[k]!
-    if (Number.isFinite(rate)) rates.push({ time: series.time[k]!, rate, se: recoveryRateSe(rate, dt, settings.window.samples) })
+    if (Number.isFinite(series.recoveryRate[k]!)) newestRate = series.recoveryRate[k]!
   }
-  return { variance, ar1, recoveryRate, rates }
+  return { variance, ar1, recoveryRate, newestRate }
 }
 
-function projectFold(rates: { time: number, rate: number, se: number }[], settings: IndicatorSettings) {
-  const newest = rates.at(-1)
-  if (!newest) return { view: { kind: 'none', reason: 'no recovery-rate estimates in this range yet' } as FoldView, slope: 0 }
-  const trailing = rates.filter(p => p.time > newest.time - FOLD_WINDOWS * settings.windowSeconds)
-  const result = foldHorizon(trailing, { windowSeconds: settings.windowSeconds, alpha: settings.alpha, confidence: 0.9, now: newest.time })
-  if (result.kind === 'no fold in view') return { view: { kind: 'none', reason: result.reason } as FoldView, slope: 0 }
-  const finiteOrNull = (v: number) => (Number.isFinite(v) ? v : null)
+/** The live evaluation (shared/pipeline/evaluateRecord) at the newest sample only. */
+function judgementAtNewest(input: TagSeriesInput): EvaluationPoint | null {
+  const { times, values, settings } = input
+  if (times.length === 0) return null
+  const period = settings.windowSeconds / settings.window.samples
+  const { points } = evaluateRecord({
+    tagId: input.seed, times, values, firstNew: times.length - 1,
+    samplesSinceEvaluation: settings.live.evaluateEvery - 1, samplePeriodS: period, settings: settings.live,
+  })
+  return points[0] ?? null
+}
+
+function foldView(point: EvaluationPoint | null): FoldView {
+  if (!point || point.evidence === null) return { kind: 'none', reason: point?.quality ?? 'not enough samples for a judgement yet' }
+  if (point.fold.kind !== 'projected') return { kind: 'none', reason: 'no fold in view: the recovery rate is not falling toward zero' }
   return {
-    view: { kind: 'projected', foldTime: result.foldTime, low: finiteOrNull(result.low), high: finiteOrNull(result.high), seconds: result.horizon } as FoldView,
-    slope: result.slope,
+    kind: 'projected', foldTime: point.time + point.fold.seconds, low: point.time + point.fold.lowSeconds,
+    high: point.time + point.fold.highSeconds, seconds: point.fold.seconds,
   }
 }
 
 /**
- * The fitted line k² = slope·(t − t_fold) drawn forward from the newest estimate, no further than
- * half the displayed range past its end, so a distant fold does not squash the history.
+ * The recovery rate drawn forward from the newest estimate to zero at the projected fold along
+ * the square-root law k ∝ √(t_fold − t) (SCIENCE.md A1), no further than half the displayed
+ * range past its end, so a distant fold does not squash the history.
  */
-function projectionPoints(fold: ReturnType<typeof projectFold>, grid: BucketGrid) {
+function projectionPoints(fold: FoldView, newestRate: number | null, grid: BucketGrid) {
   const none = { time: [] as number[], rate: [] as (number | null)[], startRate: null as number | null }
-  if (fold.view.kind !== 'projected') return none
-  const foldTime = fold.view.foldTime
+  if (fold.kind !== 'projected' || newestRate === null) return none
+  const foldTime = fold.foldTime
   const until = Math.min(foldTime, grid.to + (grid.to - grid.from) / 2)
   if (until <= grid.to) return none
-  const rateAt = (t: number) => Math.sqrt(Math.max(0, fold.slope * (t - foldTime)))
+  const rateAt = (t: number) => newestRate * Math.sqrt(Math.max(0, (foldTime - t) / (foldTime - grid.to)))
   const time = Array.from({ length: PROJECTION_POINTS }, (_, i) => grid.to + ((i + 1) / PROJECTION_POINTS) * (until - grid.to))
   return { time, rate: time.map(rateAt), startRate: rateAt(grid.to) }
-}
-
-function trendSignificance(times: Float64Array, residuals: Float64Array, settings: IndicatorSettings, seed: number) {
-  // The trailing trend window, as the live pipeline tests it.
-  const n = Math.min(residuals.length, settings.trendWindowSamples)
-  if (n < settings.window.samples + 2 * settings.indicatorStep) return null
-  const start = residuals.length - n
-  const result = surrogateTrendTest(times.subarray(start), residuals.subarray(start), {
-    window: settings.window,
-    step: settings.indicatorStep,
-    surrogates: settings.surrogates,
-    kind: 'ar1',
-    indicators: ['ar1', 'variance'],
-  }, createRng(seed))
-  const pack = (r: { tau: number, p: number } | undefined): TrendSignificance =>
-    ({ tau: r && Number.isFinite(r.tau) ? r.tau : null, p: r ? r.p : null })
-  return { ar1: pack(result.ar1), variance: pack(result.variance) }
 }

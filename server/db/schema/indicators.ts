@@ -16,11 +16,11 @@ export const indicatorSettings = pgTable('indicator_settings', {
   evaluateEvery: integer('evaluate_every').notNull(),
   surrogates: integer('surrogates').notNull(),
   alpha: doublePrecision('alpha').notNull(),
-  minTau: doublePrecision('min_tau').notNull(),
+  minTrendSamples: integer('min_trend_samples').notNull().default(200),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   updatedBy: integer('updated_by').references(() => users.id, { onDelete: 'set null' }),
 }, t => [
-  check('indicator_settings_sizes', sql`${t.windowSamples} >= 20 and ${t.trendWindowSamples} > ${t.windowSamples} and ${t.indicatorStep} >= 1 and ${t.evaluateEvery} >= 1 and ${t.surrogates} >= 19`),
+  check('indicator_settings_sizes', sql`${t.windowSamples} >= 20 and ${t.trendWindowSamples} > ${t.windowSamples} and ${t.minTrendSamples} >= 30 and ${t.minTrendSamples} <= ${t.trendWindowSamples} and ${t.indicatorStep} >= 1 and ${t.evaluateEvery} >= 1 and ${t.surrogates} >= 19`),
 ])
 
 // The claim row of the scheduled pipeline: workers lock it FOR UPDATE SKIP LOCKED, so several

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { rollingIndicators } from '#shared/analysis/pipeline'
 import { createRng } from '#shared/analysis/random'
 import { simulateOu } from '#shared/analysis/simulate'
+import { defaultIndicatorSettings } from '#shared/pipeline/indicatorDefaults'
 import { chartIndicatorSettings } from '#shared/utils/chartIndicatorSettings'
 import { buildTagSeries } from '#shared/utils/tagSeries'
 
@@ -45,7 +46,7 @@ describe('buildTagSeries', () => {
 
   it('tests the trend over the tag\'s trend window: a rising AR1 is significant, a steady one is not', () => {
     // Over the last 3,000 s the AR(1) coefficient e^{−k} rises from about 0.69 to 0.83.
-    const long = chartIndicatorSettings(1, { windowSamples: 300, detrendBandwidthS: 100, trendWindowSamples: 3_000, indicatorStep: 10, surrogates: 99, alpha: 0.01 })
+    const long = chartIndicatorSettings(1, { ...defaultIndicatorSettings(1), trendWindowSamples: 3_000 })
     expect(buildTagSeries({ ...approachingFold, grid, settings: long, seed: 1 }).significance!.ar1.p!).toBeLessThanOrEqual(0.05)
     const calm = buildTagSeries({ ...steady, grid, settings: long, seed: 1 })
     expect(calm.fold.kind).toBe('none')

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { createRng, type Rng } from '#shared/analysis/random'
-import { fitStabilityTrend, stabilityTrendTest } from '#shared/analysis/stabilityTrendTest'
+import { fitStabilityTrend, stabilityTrendTest } from '#shared/analysis/stabilityTrend'
 import { binomialBounds } from './support/binomial'
 
 /** x_t = φ(t)·x_{t−1} + e_t, e ~ N(0, 1), started from the stationary law of φ(0) (SCIENCE.md A2). */

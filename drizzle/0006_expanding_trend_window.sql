@@ -1,0 +1,3 @@
+ALTER TABLE "indicator_settings" DROP CONSTRAINT "indicator_settings_sizes";--> statement-breakpoint
+ALTER TABLE "indicator_settings" ADD COLUMN "min_trend_samples" integer DEFAULT 200 NOT NULL;--> statement-breakpoint
+ALTER TABLE "indicator_settings" ADD CONSTRAINT "indicator_settings_sizes" CHECK ("indicator_settings"."window_samples" >= 20 and "indicator_settings"."trend_window_samples" > "indicator_settings"."window_samples" and "indicator_settings"."min_trend_samples" >= 30 and "indicator_settings"."min_trend_samples" <= "indicator_settings"."trend_window_samples" and "indicator_settings"."indicator_step" >= 1 and "indicator_settings"."evaluate_every" >= 1 and "indicator_settings"."surrogates" >= 19);
