@@ -1,9 +1,11 @@
 import { cpSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
+import { workerChunkPlugin } from './server/workers/workerChunkPlugin'
 
 // Migrations live in drizzle/ (drizzle-kit's default); the built server must find them next to
 // itself, so the compiled hook copies them into .output/.
 const migrationsDir = fileURLToPath(new URL('./drizzle', import.meta.url))
+const evaluationWorker = fileURLToPath(new URL('./server/workers/evaluateRecordWorker.ts', import.meta.url))
 
 export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
@@ -36,6 +38,8 @@ export default defineNuxtConfig({
       [process.env.NUXT_PIPELINE_CRON || '*/10 * * * * *']: ['indicators:refresh'],
       [process.env.NUXT_SENDER_CRON || '*/5 * * * * *']: ['notifications:send'],
     },
+    // Tag evaluations run on worker threads, which load their code from a file of the bundle.
+    rollupConfig: { plugins: [workerChunkPlugin(evaluationWorker, 'workers/evaluate-record.mjs')] },
     hooks: {
       compiled(nitro) {
         cpSync(migrationsDir, `${nitro.options.output.serverDir}/drizzle`, { recursive: true })

@@ -2,6 +2,7 @@ import { and, eq, isNull, sql } from 'drizzle-orm'
 import { defaultIndicatorSettings } from '#shared/pipeline/indicatorDefaults'
 import { NO_DATA_PERIODS } from '#shared/pipeline/tagStatus'
 import { indicatorSettings, tags } from '../db/schema'
+import { serverEvaluationPool } from './recordEvaluation'
 import { processTagBatch, type BatchOutcome } from './tagProcessing'
 
 /** Tags claimed and stored together in one transaction: round trips are per batch, not per tag. */
@@ -17,6 +18,8 @@ export interface TickReport {
   shelvesExpired: number
   slowModes: number
   ms: number
+  /** Worker threads evaluating tags; 0 when they are evaluated on the main thread. */
+  evaluationThreads: number
   stages: Record<string, number>
 }
 
@@ -37,7 +40,7 @@ export async function runPipelineTick(db: Db, ctx: ChangeContext, clock = new St
       order by st.tag_id`)
     return rows.map(r => Number(r.tag_id))
   })
-  const report: TickReport = { tags: 0, skipped: 0, samples: 0, evaluations: 0, shelvesExpired: 0, slowModes: 0, ms: 0, stages: {} }
+  const report: TickReport = { tags: 0, skipped: 0, samples: 0, evaluations: 0, shelvesExpired: 0, slowModes: 0, ms: 0, evaluationThreads: serverEvaluationPool().threads, stages: {} }
   const batches = Array.from({ length: Math.ceil(candidates.length / TAG_BATCH_SIZE) },
     (_, i) => candidates.slice(i * TAG_BATCH_SIZE, (i + 1) * TAG_BATCH_SIZE))
   const count = (tagIds: number[], done: BatchOutcome) => {

@@ -1,7 +1,8 @@
 import { sql } from 'drizzle-orm'
-import { evaluateRecord, type EvaluationPoint } from '#shared/pipeline/evaluateRecord'
+import type { EvaluationPoint } from '#shared/pipeline/evaluateRecord'
 import { alarmContext, measureOf } from '#shared/pipeline/ruleMeasure'
 import type { TagMeasure } from '#shared/alarms/vocabulary'
+import { evaluateRecords } from './recordEvaluation'
 import { claimTags, latestStoredPoints, loadRecords, type TagRecord } from './tagBatchLoad'
 import { advanceClaims, storePoints, storeStatuses } from './tagBatchStore'
 import { loadRuleRuntimes, observe, saveRuleRuntimes, type RuleRuntime } from './ruleEvaluation'
@@ -38,13 +39,13 @@ export async function processTagBatch(db: Db, tagIds: number[], ctx: ChangeConte
     const outcome = { claimed: claims.length, samples: 0, evaluations: 0 }
     if (active.length === 0) return outcome
     const previous = await clock.run('load samples', () => latestStoredPoints(tx, active.map(r => r.tag.id)))
-    const evaluated: EvaluatedTag[] = active.map((r) => {
-      const result = evaluateRecord({
-        tagId: r.tag.id, times: r.t, values: r.v, firstNew: r.t.length - r.newCount,
-        samplesSinceEvaluation: r.claim.samplesSinceEvaluation, samplePeriodS: r.tag.samplePeriodS, settings: r.settings,
-      }, clock.sync)
-      return { ...r, ...result, previous: previous.get(r.tag.id) ?? null }
-    })
+    // On worker threads (recordEvaluation.ts), which cannot share the clock: 'evaluate' is the
+    // awaited whole, queueing for a thread included, not the engine's own stages.
+    const results = await clock.run('evaluate', () => evaluateRecords(active.map(r => ({
+      tagId: r.tag.id, times: r.t, values: r.v, firstNew: r.t.length - r.newCount,
+      samplesSinceEvaluation: r.claim.samplesSinceEvaluation, samplePeriodS: r.tag.samplePeriodS, settings: r.settings,
+    }))))
+    const evaluated: EvaluatedTag[] = active.map((r, i) => ({ ...r, ...results[i]!, previous: previous.get(r.tag.id) ?? null }))
     await clock.run('store points', () => storePoints(tx, evaluated.map(e => ({ tagId: e.tag.id, points: e.points }))))
     await clock.run('rules and alarms', () => runRules(tx, evaluated, ctx))
     await clock.run('status', () => storeStatuses(tx, evaluated.map(e => ({

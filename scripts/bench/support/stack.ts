@@ -25,6 +25,8 @@ export interface BenchStack {
   url: string
   databaseUrl: string
   sql: postgres.Sql
+  /** One more built server on the same database (not seeding: the first one did), for A/B runs. */
+  addServer: (extraEnv: Record<string, string>) => Promise<string>
   stop: () => Promise<void>
 }
 
@@ -40,23 +42,32 @@ export async function startStack(extraEnv: Record<string, string> = {}): Promise
   const pg = (action: string) => execFileSync('bash', [`${ROOT}scripts/pg.sh`, action], { env: pgEnv, encoding: 'utf8' }).trim()
   pg('start')
   const databaseUrl = pg('url')
-  const port = await freePort()
-  const server: ChildProcess = spawn('node', [`${ROOT}.output/server/index.mjs`], {
-    env: {
-      ...process.env, PORT: String(port), HOST: '127.0.0.1', NUXT_DATABASE_URL: databaseUrl,
-      NUXT_SESSION_PASSWORD: 'bench-session-password-at-least-32-characters', BRINKLINE_SEED_DEMO: '1',
-      BRINKLINE_DEMO_PASSWORD: BENCH_PASSWORD, BRINKLINE_SIM_KEY: BENCH_SIM_KEY, ...extraEnv,
-    },
-    stdio: 'ignore',
-  })
-  const url = `http://127.0.0.1:${port}`
+  const servers: ChildProcess[] = []
+  const spawnServer = async (env: Record<string, string>) => {
+    const port = await freePort()
+    servers.push(spawn('node', [`${ROOT}.output/server/index.mjs`], {
+      env: {
+        ...process.env, PORT: String(port), HOST: '127.0.0.1', NUXT_DATABASE_URL: databaseUrl,
+        NUXT_SESSION_PASSWORD: 'bench-session-password-at-least-32-characters', BRINKLINE_SEED_DEMO: '1',
+        BRINKLINE_DEMO_PASSWORD: BENCH_PASSWORD, BRINKLINE_SIM_KEY: BENCH_SIM_KEY, ...env,
+      },
+      stdio: 'ignore',
+    }))
+    return `http://127.0.0.1:${port}`
+  }
+  const url = await spawnServer(extraEnv)
   await waitForSeed(url)
   const sql = postgres(databaseUrl, { max: 4, onnotice: () => {} })
   return {
     url, databaseUrl, sql,
+    async addServer(env) {
+      const other = await spawnServer({ ...extraEnv, BRINKLINE_SEED_DEMO: '0', ...env })
+      await waitForHealth(other)
+      return other
+    },
     async stop() {
       await sql.end()
-      server.kill()
+      for (const server of servers) server.kill()
       pg('stop')
       rmSync(pgEnv.BRINKLINE_PGDATA, { recursive: true, force: true })
     },
@@ -74,6 +85,14 @@ async function waitForSeed(url: string) {
     await new Promise(r => setTimeout(r, 250))
   }
   throw new Error('server did not come up with the demo gateway')
+}
+
+async function waitForHealth(url: string) {
+  for (let i = 0; i < 240; i++) {
+    if ((await fetch(`${url}/api/public/health`).catch(() => null))?.status === 200) return
+    await new Promise(r => setTimeout(r, 250))
+  }
+  throw new Error(`server ${url} did not come up`)
 }
 
 /** Formats a number of rows per second for a table. */
