@@ -26,7 +26,9 @@ const settings = {
   evaluateEvery: env('EVERY') ?? defaults.evaluateEvery,
   detrendBandwidthS: env('BW') ?? defaults.detrendBandwidthS,
   minTrendSamples: env('MIN') ?? defaults.minTrendSamples,
+  surrogates: env('SURROGATES') ?? defaults.surrogates,
 }
+const ONLY = process.env.ONLY
 
 const HARVEST_FOLD = 0.260437
 function harvest(rng: Rng, forced: boolean): Float64Array {
@@ -82,6 +84,7 @@ function alerts(values: Float64Array, tagId: number): number {
 
 console.log(`α ${settings.alpha}, on-delay ${ON_DELAY}, every ${settings.evaluateEvery}, bandwidth ${settings.detrendBandwidthS}, first judgement after ${settings.minTrendSamples}; ${SEEDS} records of ${N} per kind`)
 Object.entries(KINDS).forEach(([name, make], k) => {
+  if (ONLY && !name.includes(ONLY)) return
   let alerted = 0
   for (let s = 0; s < SEEDS; s++) if (alerts(make(createRng(1_000 * s + 17 * k + 13)), s + 1) > 0) alerted++
   console.log(`${name.padEnd(26)} ${String(alerted).padStart(3)}/${SEEDS}`)
