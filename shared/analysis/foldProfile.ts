@@ -27,11 +27,11 @@ export interface FoldProfileOptions {
 const CHI2_1: Record<FoldProfileOptions['confidence'], number> = { 0.8: 1.642374, 0.9: 2.705543, 0.95: 3.841459 }
 
 /** Candidate fold times, from just after now to 20 window spans ahead (geometric). */
-const GRID_POINTS = 56
+const GRID_POINTS = 32
 const GRID_NEAREST = 0.005
 const GRID_FARTHEST = 20
 const SHAPES = [{ power: 0.5, name: 'square root' }, { power: 1, name: 'linear' }] as const
-const GAUSS_NEWTON_STEPS = 6
+const GAUSS_NEWTON_STEPS = 4
 
 /** Fits the fold time to detrended residuals `values` sampled at `times` (s, ascending). */
 export function foldProfile(times: ArrayLike<number>, values: ArrayLike<number>, options: FoldProfileOptions): FoldProfile {

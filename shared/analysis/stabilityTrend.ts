@@ -37,7 +37,7 @@ export interface StabilityTrendFit {
  * residual of an accelerating or slowly oscillating mean), which would otherwise change the
  * apparent φ across the window (SCIENCE.md A5 item 13).
  */
-export const INTERCEPT_DEGREE = 2
+export const INTERCEPT_DEGREE = 2 as const
 
 /** Fits both models to `values` (centred first; the intercept polynomial absorbs slow drift). */
 export function fitStabilityTrend(values: ArrayLike<number>): StabilityTrendFit {
@@ -71,16 +71,6 @@ interface PairDesign {
   yty: number
 }
 
-function regressors(s: number, previous: number, out: Float64Array): void {
-  let power = 1
-  for (let d = 0; d <= INTERCEPT_DEGREE; d++) {
-    out[d] = power
-    power *= s
-  }
-  out[INTERCEPT_DEGREE + 1] = previous
-  out[INTERCEPT_DEGREE + 2] = s * previous
-}
-
 function pairDesign(values: ArrayLike<number>): PairDesign | null {
   const n = values.length
   const k = INTERCEPT_DEGREE + 3
@@ -88,21 +78,61 @@ function pairDesign(values: ArrayLike<number>): PairDesign | null {
   let mean = 0
   for (let i = 0; i < n; i++) mean += values[i]!
   mean /= n
-  const xtx = new Float64Array(k * k)
-  const xty = new Float64Array(k)
-  const z = new Float64Array(k)
-  let yty = 0
+  // The regressors are 1, s, s², x, s·x (INTERCEPT_DEGREE = 2), so the normal equations need the
+  // sums below; the ones of s alone depend only on n. Written out because this runs for every
+  // bootstrap series of every evaluation: the tick's hottest loop.
+  const powers = sPowerSums(n)
+  let sx = 0, ssx = 0, s2x = 0, s3x = 0, xx = 0, sxx = 0, s2xx = 0
+  let y1 = 0, sy = 0, s2y = 0, xy = 0, sxy = 0, yy = 0
+  let x = values[0]! - mean
+  const scale = 1 / (n - 1)
   for (let t = 1; t < n; t++) {
     const y = values[t]! - mean
-    regressors(t / (n - 1) - 0.5, values[t - 1]! - mean, z)
-    for (let a = 0; a < k; a++) {
-      xty[a] = xty[a]! + z[a]! * y
-      for (let b = 0; b <= a; b++) xtx[a * k + b] = xtx[a * k + b]! + z[a]! * z[b]!
-    }
-    yty += y * y
+    const s1 = t * scale - 0.5
+    const s2 = s1 * s1
+    const xs = x * s1
+    sx += x
+    ssx += xs
+    s2x += x * s2
+    s3x += xs * s2
+    xx += x * x
+    sxx += xs * x
+    s2xx += xs * xs
+    y1 += y
+    sy += s1 * y
+    s2y += s2 * y
+    xy += x * y
+    sxy += xs * y
+    yy += y * y
+    x = y
   }
-  for (let a = 0; a < k; a++) for (let b = a + 1; b < k; b++) xtx[a * k + b] = xtx[b * k + a]!
-  return { columns: k, pairs: n - 1, xtx, xty, yty }
+  const xtx = Float64Array.from([
+    powers[0]!, powers[1]!, powers[2]!, sx, ssx,
+    powers[1]!, powers[2]!, powers[3]!, ssx, s2x,
+    powers[2]!, powers[3]!, powers[4]!, s2x, s3x,
+    sx, ssx, s2x, xx, sxx,
+    ssx, s2x, s3x, sxx, s2xx,
+  ])
+  return { columns: k, pairs: n - 1, xtx, xty: Float64Array.from([y1, sy, s2y, xy, sxy]), yty: yy }
+}
+
+/** Σ s^p over the pairs t = 1 … n − 1, p = 0 … 4, cached by n (the same n repeats every tick). */
+const powerSumCache = new Map<number, Float64Array>()
+function sPowerSums(n: number): Float64Array {
+  let sums = powerSumCache.get(n)
+  if (sums) return sums
+  sums = new Float64Array(5)
+  for (let t = 1; t < n; t++) {
+    const s = t / (n - 1) - 0.5
+    let power = 1
+    for (let p = 0; p < 5; p++) {
+      sums[p] = sums[p]! + power
+      power *= s
+    }
+  }
+  if (powerSumCache.size > 64) powerSumCache.clear()
+  powerSumCache.set(n, sums)
+  return sums
 }
 
 /**

@@ -31,7 +31,7 @@ export interface EvaluationPoint {
   pAr1: number | null
   tauVariance: number | null
   pVariance: number | null
-  /** null until the trend window is full (or when the gate failed). */
+  /** null until `minTrendSamples` usable samples follow the warm-up (or when the gate failed). */
   evidence: TrendEvidence | null
   fold: { kind: 'projected', seconds: number, lowSeconds: number, highSeconds: number } | { kind: 'none' }
 }

@@ -1,3 +1,4 @@
+import { defaultIndicatorSettings } from '../../../shared/pipeline/indicatorDefaults'
 // Runs both procedures over one record and keeps only what the tables need, so the series
 // itself (up to 10⁴ samples) can be dropped straight away.
 import { createRng } from '../../../shared/analysis/random'
@@ -8,7 +9,8 @@ import { runLive, type LiveOutcome } from './liveProcedure'
 import type { RecordMeta, StudyRecord } from './recordSets'
 
 /** The product's α: what the live stability-trend test is judged at. */
-export const PRODUCT_ALPHA = 0.01
+/** The live α, so the Dakos column at the product's α compares like with like. */
+export const PRODUCT_ALPHA = defaultIndicatorSettings(1).alpha
 export const ONLINE_ALPHAS = [DAKOS_ALPHA, PRODUCT_ALPHA] as const
 
 export interface ProcedureBudget {

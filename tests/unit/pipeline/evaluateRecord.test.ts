@@ -65,11 +65,11 @@ describe('a fold approach against a steady series (seeded, many records)', () =>
   const approaches = Array.from({ length: RECORDS }, (_, s) => last(100 + s, true))
   const steadies = Array.from({ length: RECORDS }, (_, s) => last(200 + s, false))
 
-  it('judges over half the approaches "slowing down" at their last look, and almost no steady record (α 0.002 per look)', () => {
+  it('judges over half the approaches "slowing down" at their last look, and almost no steady record (α 0.001 per look)', () => {
     const hits = approaches.filter(p => p.evidence === 'slowing down').length
     const falseHits = steadies.filter(p => p.evidence === 'slowing down').length
     expect(hits).toBeGreaterThanOrEqual(RECORDS * 0.5)
-    // Binomial(30, 0.002): P(≥ 2) ≈ 0.002.
+    // Binomial(30, 0.001): P(≥ 2) ≈ 0.0004.
     expect(falseHits).toBeLessThanOrEqual(1)
   })
 
