@@ -1,6 +1,6 @@
-import { defaultIndicatorSettings } from '../../../shared/pipeline/indicatorDefaults'
 // Runs both procedures over one record and keeps only what the tables need, so the series
 // itself (up to 10⁴ samples) can be dropped straight away.
+import { defaultIndicatorSettings } from '../../../shared/pipeline/indicatorDefaults'
 import { createRng } from '../../../shared/analysis/random'
 import { dakosFold, type DakosFold } from './dakosFold'
 import { runDakosOnline, type OnlineOutcome } from './dakosOnline'
