@@ -54,7 +54,7 @@ describe('early warning over simulated plants (DESIGN.md §9 detection)', () => 
   // (scripts/bench/detection.ts steadyUnitNulls, seeds 1–12) the procedure raised 1 false
   // slowing-down alert in 24 tag-weeks, and this week (seed 7) holds it. So the check is the
   // calibrated rate: nothing but at most that one advisory alert, never an alarm or a fold.
-  it('raises nothing on the steady unit over a simulated week', async () => {
+  it('raises no alarm and at most the calibrated one advisory alert on the steady unit over a simulated week', async () => {
     const ids = [await tagWithDemoRules('TI-491', 'T-400', 60, 'TI-401'), await tagWithDemoRules('LI-492', 'T-400', 60, 'LI-402')]
     const { sampler } = simulate('steady', {}, 60, 7)
     const start = FIXED_START_MS
