@@ -7,8 +7,11 @@ import { duration, number } from '../notifications/format'
 
 /** Samples stopping for this many sample periods means "no data". */
 export const NO_DATA_PERIODS = 3
-/** A trend p-value at or below this puts the tag on watch before it is significant. */
-export const WATCH_P = 0.1
+/**
+ * A stability-trend p at or below this puts the tag on watch before it is significant (α 0.001).
+ * A calibrated p is at most 0.1 on a tenth of a steady tag's looks, so 0.1 kept steady tags on watch.
+ */
+export const WATCH_P = 0.01
 
 export interface StatusInput {
   now: number
