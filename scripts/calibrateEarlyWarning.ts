@@ -1,4 +1,4 @@
-// Whole-procedure calibration of the live slowing-down alert (SCIENCE.md A5 item 12): seeded
+// Whole-procedure calibration of the live slowing-down alert (docs/science.md §S8.1): seeded
 // 500-sample records through shared/pipeline/evaluateRecord with the default settings, then the
 // slowing-down rule's on-/off-delay, exactly as the scheduled task replays them. Counts the records
 // that raised at least one alert, per kind. Environment overrides (ALPHA, ON, EVERY, BW, MIN,

@@ -1,4 +1,4 @@
-// The one polling mechanism (STYLE.md §3.8): client-only, paused while the tab is hidden, and
+// The one polling mechanism (docs/style.md §C10): client-only, paused while the tab is hidden, and
 // backing off (doubling, up to 8× the interval) while requests fail so a struggling server is
 // not hammered. `failed` is the fetch's error ref.
 export function usePolling(refresh: () => Promise<unknown>, ms = 5_000, failed?: Ref<unknown>) {

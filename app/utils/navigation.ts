@@ -2,7 +2,7 @@ import type { Capability } from '#shared/utils/roles'
 
 export interface NavItem { to: string, label: string, capability: Capability }
 
-// Each role sees its own work (DESIGN.md §2); the server checks the same capabilities per route.
+// Each role sees its own work (docs/design.md §D2.1); the server checks the same capabilities per route.
 export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Overview', capability: 'view' },
   { to: '/alarms', label: 'Alarms', capability: 'view' },

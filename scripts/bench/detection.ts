@@ -1,4 +1,4 @@
-// Detection study of the LIVE early-warning alarm (SCIENCE.md A5 item 12: calibrate the whole
+// Detection study of the LIVE early-warning alarm (docs/science.md §S8.1: calibrate the whole
 // monitoring procedure, on-delay included, not one test). Every series below goes through
 // shared/pipeline/evaluateRecord with the settings the server gives the tag
 // (defaultIndicatorSettings of its sample period), then through the demo rules' condition tracker
@@ -93,13 +93,13 @@ export const NULL_SCENARIOS: { name: string, make: (rng: Rng) => SampledSeries }
   { name: 'trend-free OU (k = 1/600 s⁻¹)', make: rng => ouWeek(rng, {}) },
   {
     // An accelerating drift of the mean (8 SD over the week, cubic) plus a daily swing of 2 SD
-    // (SCIENCE.md A5 item 13: accelerating trends fool detrending).
+    // (docs/science.md §S2.2: accelerating trends fool detrending).
     name: 'drifting-mean OU',
     make: rng => ouWeek(rng, { mean: t => OU_SD * (8 * (t / WEEK_S) ** 3 + 2 * Math.sin(2 * Math.PI * t / 86400)) }),
   },
   {
     // The noise amplitude doubles at a random time in days 3–5 (a pump change, a new feed):
-    // variance rises, stability does not change (SCIENCE.md A5 item 11).
+    // variance rises, stability does not change (docs/science.md §S3.2).
     name: 'noise-level step ×2',
     make: (rng) => {
       const at = (3 + 2 * rng.uniform()) * 86400
@@ -195,7 +195,7 @@ export function demoApproaches(seeds: readonly number[], options: StudyOptions =
 }
 
 /**
- * ẋ = r(t) − x² + σξ in minutes (SCIENCE.md A1), sampled every 60 s, r falling linearly from 0.04
+ * ẋ = r(t) − x² + σξ in minutes (docs/science.md §S1.1), sampled every 60 s, r falling linearly from 0.04
  * to the fold r = 0 at t = 4 days (recovery time 2.5 min at the start). The tip is x < −0.3.
  */
 export function normalFormApproaches(runs: number, seed: number, options: StudyOptions = {}): ApproachResult {

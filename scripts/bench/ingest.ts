@@ -1,5 +1,5 @@
 // API ingest against the ceiling: raw COPY of the same rows into the same table, in one run.
-// Goal (DESIGN.md §9): API rows/s ≥ 0.5 × COPY rows/s.
+// Goal (docs/design.md §D11): API rows/s ≥ 0.5 × COPY rows/s.
 import { Readable } from 'node:stream'
 import { pipeline } from 'node:stream/promises'
 import { BENCH_SIM_KEY, perSecond, startStack } from './support/stack'

@@ -1,6 +1,6 @@
 // Overview API latency with 1,000 watched tags while gateways keep posting samples, beside the
 // same requests on an idle server; and the JavaScript the overview page loads, beside the tag
-// page's (which carries the chart library). Goal (DESIGN.md §9): p95 < 100 ms, page JS small.
+// page's (which carries the chart library). Goal (docs/design.md §D11): p95 < 100 ms, page JS small.
 import { gzipSync } from 'node:zlib'
 import { BENCH_PASSWORD, BENCH_SIM_KEY, startStack, type BenchStack } from './support/stack'
 

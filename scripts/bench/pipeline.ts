@@ -3,7 +3,7 @@
 // two servers on one database, each tick run on both from the same state. Prints time per stage,
 // evaluations per second against what 1,000 and 10,000 tags at 1 Hz need, the same evaluations
 // without the database (the engine's ceiling), and sample-to-mail latency in ticks (goal,
-// DESIGN.md §9: ≤ 2 ticks). The tags are 1 Hz OU series with the history their windows need
+// docs/design.md §D11: ≤ 2 ticks). The tags are 1 Hz OU series with the history their windows need
 // already processed, as on a running plant; each tick brings 10 s of new samples.
 import { mkdtempSync } from 'node:fs'
 import { tmpdir } from 'node:os'

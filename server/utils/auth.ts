@@ -22,7 +22,7 @@ export async function requireRole(event: H3Event, ...roles: Role[]): Promise<Use
   return user
 }
 
-/** Same as requireRole, phrased by capability (DESIGN.md §2). */
+/** Same as requireRole, phrased by capability (docs/design.md §D2.1). */
 export async function requireCapability(event: H3Event, capability: Capability): Promise<User> {
   const user = await requireUser(event)
   if (!can(user.role, capability))

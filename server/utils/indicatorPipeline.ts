@@ -24,7 +24,7 @@ export interface TickReport {
 }
 
 /**
- * One tick of the live pipeline (DESIGN.md §4): the watched tags with samples newer than their
+ * One tick of the live pipeline (docs/design.md §D4 item 3): the watched tags with samples newer than their
  * claim are processed in batches, each batch in its own transaction; then expired shelves end,
  * silent tags turn to "no data", and the units' slow modes are refreshed. Safe to run on several
  * instances at once.

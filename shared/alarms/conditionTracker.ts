@@ -1,4 +1,4 @@
-// When a rule's condition counts as active: the generic alarm logic of SCIENCE.md §D — activate
+// When a rule's condition counts as active: the generic alarm logic of docs/science.md §S7.3 — activate
 // when x ≥ H has held for the on-delay, clear when x < H − deadband has held for the off-delay
 // (mirrored for a low limit). Deadband and delays are what stop a noisy signal near its limit
 // from chattering. Pure: the pipeline stores the state between ticks.

@@ -1,4 +1,4 @@
-// Alarm flood (SCIENCE.md §D): more than 10 alarms in 10 minutes for one operator position
+// Alarm flood (docs/science.md §S7.4): more than 10 alarms in 10 minutes for one operator position
 // (ISA-18.2 / EEMUA 191 [R: University of Alberta alarm-research page]). Brinkline applies it per
 // site to mail: past the threshold, alarms are gathered into one digest instead of a mail each.
 export const FLOOD_WINDOW_MINUTES = 10

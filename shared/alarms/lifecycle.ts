@@ -1,4 +1,4 @@
-// The alarm state machine of ANSI/ISA-18.2-2016 (IEC 62682), as summarised in SCIENCE.md §D:
+// The alarm state machine of ANSI/ISA-18.2-2016 (IEC 62682), as summarised in docs/science.md §S7.2:
 // A normal → B unacknowledged on activation; B → C acknowledged on acknowledgement; B → D
 // returned-to-normal unacknowledged when the condition clears first; C → A on return; D → A on
 // acknowledgement. Shelved (F), suppressed by design (G) and out of service (H) can be entered

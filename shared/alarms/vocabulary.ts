@@ -1,5 +1,5 @@
 // The closed sets of the alarm system, shared by the database schema, the zod contracts, the
-// pipeline and the screens (names from DESIGN.md §3 and ISA-18.2 / IEC 62682 terms).
+// pipeline and the screens (names from docs/design.md §D3 and ISA-18.2 / IEC 62682 terms).
 
 /** Most urgent first: the order the active list sorts by. */
 export const PRIORITIES = ['urgent', 'high', 'medium', 'low'] as const
@@ -15,7 +15,7 @@ export const priorityRank = (p: Priority): number => PRIORITIES.indexOf(p)
 export const ALARM_CLASSES = ['alarm', 'alert'] as const
 export type AlarmClass = typeof ALARM_CLASSES[number]
 
-/** ISA-18.2 alarm states A–D and F–H (SCIENCE.md §D); the optional latched state E is not used. */
+/** ISA-18.2 alarm states A–D and F–H (docs/science.md §S7.2); the optional latched state E is not used. */
 export const ALARM_STATES = [
   'normal', 'unacknowledged', 'acknowledged', 'rtn_unacknowledged', 'shelved', 'suppressed', 'out_of_service',
 ] as const
@@ -56,10 +56,10 @@ export type Comparison = typeof COMPARISONS[number]
 export const TARGET_KINDS = ['tag', 'unit'] as const
 export type TargetKind = typeof TARGET_KINDS[number]
 
-/** Tile status of a tag (DESIGN.md §3), most severe first after the data problems. */
+/** Tile status of a tag (docs/design.md §D3), most severe first after the data problems. */
 export const TAG_STATUSES = ['steady', 'watch', 'warning', 'alarm', 'no data', 'bad quality'] as const
 export type TagStatus = typeof TAG_STATUSES[number]
 
-/** The caution every alarm message and e-mail carries (DESIGN.md §1). */
+/** The caution every alarm message and e-mail carries (docs/design.md §D1). */
 export const ADVISORY_CAUTION = 'Advisory only: Brinkline never writes to a control system. '
   + 'Follow the plant\'s operating procedures and the instructions of the responsible authority.'

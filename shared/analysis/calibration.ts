@@ -1,4 +1,4 @@
-// Whole-procedure calibration (SCIENCE.md A5 item 12): re-testing a growing series every tick
+// Whole-procedure calibration (docs/science.md §S8.1): re-testing a growing series every tick
 // makes "p < α once" far likelier than α, so the false-alarm rate is measured on the complete
 // live procedure (detrending, trend tests, on-delay) run over null series, per tag-week.
 import type { Rng } from './random'

@@ -1,7 +1,7 @@
 // One-sided local-linear trend: at each new sample, a straight line fitted by least squares to
 // all past samples with weights exp(−age/bandwidth). A centred smoother lags behind a mean that
 // accelerates near the end of the record and leaves a growing residual that mimics slowing down
-// (SCIENCE.md A5 item 13); a local line follows a steady ramp with no lag. Because it uses only
+// (docs/science.md §S2.2); a local line follows a steady ramp with no lag. Because it uses only
 // the past, a residual never changes once computed, which is what the incremental live path needs.
 
 /** Streaming one-sided local-linear trend estimator; O(1) per sample. */

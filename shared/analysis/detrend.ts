@@ -1,4 +1,4 @@
-// Trend removal before the indicators (SCIENCE.md A3 step 1): residual = value − trend.
+// Trend removal before the indicators (docs/science.md §S2.2): residual = value − trend.
 import { CausalTrendFilter } from './causalTrend'
 import { gaussianSmooth } from './gaussianSmoother'
 import type { DetrendSpec } from './types'

@@ -1,9 +1,9 @@
 // The alarm-worthy criterion of one evaluation, shared by the live task, replays and the
-// benchmarks. Slowing down is judged on recovery-rate evidence (SCIENCE.md A5 item 11): the
+// benchmarks. Slowing down is judged on recovery-rate evidence (docs/science.md §S3.2): the
 // stability-trend test says the AR(1) coefficient is rising (recovery slowing), and the variance
 // must not be falling, as both rise together near a fold (Ditlevsen & Johnsen 2010, GRL
 // 37:L19703). A variance rise on its own is "noise level changed", never slowing down. The rule's
-// on-delay and off-delay (ISA-18.2-style hysteresis, SCIENCE.md D) then act on these verdicts.
+// on-delay and off-delay (ISA-18.2-style hysteresis, docs/science.md §S7.3) then act on these verdicts.
 import { normalUpperTail } from './normal'
 import type { StabilityTrendTest } from './stabilityTrend'
 

@@ -1,4 +1,4 @@
-// Fold horizon (SCIENCE.md A1, "distance and time to fold"): near a fold the recovery rate obeys
+// Fold horizon (docs/science.md §S1.1, §S4.2): near a fold the recovery rate obeys
 // k² ∝ (μ_c − μ); with a steadily drifting driver, k² falls linearly in time and reaches zero at
 // the fold. A weighted line through the recent k̂² estimates extrapolates to that time.
 import { studentTQuantile } from './studentT'
@@ -37,7 +37,7 @@ export type FoldHorizon =
   | { kind: 'no fold in view', reason: string }
 
 /**
- * SE of k̂ = −ln(r₁)/Δ from n samples (SCIENCE.md A2): √((1 − φ²)/n)/(φ·|ln φ|)·k with φ = e^{−kΔ}.
+ * SE of k̂ = −ln(r₁)/Δ from n samples (docs/science.md §S2.3): √((1 − φ²)/n)/(φ·|ln φ|)·k with φ = e^{−kΔ}.
  */
 export function recoveryRateSe(rate: number, dt: number, n: number): number {
   const phi = Math.exp(-rate * dt)
@@ -93,7 +93,7 @@ function weightedLine(points: readonly RatePoint[]): LineFit {
   const y = points.map(p => p.rate * p.rate)
   const observedVar = points.map(p => 4 * p.rate * p.rate * p.se * p.se)
   // Weights from each point's own k̂ favour the points that came out low by chance (Var(k̂²)
-  // grows like k³, SCIENCE.md A2), dragging the line down and the fold early. So the weights are
+  // grows like k³, docs/science.md §S2.3), dragging the line down and the fold early. So the weights are
   // re-evaluated at the fitted k² (iteratively reweighted least squares, two passes), floored at
   // the smallest observed k̂² so a line crossing zero inside the data cannot take all the weight.
   const floor = Math.min(...y.filter(v => v > 0))

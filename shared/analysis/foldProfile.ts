@@ -1,5 +1,5 @@
-// Time to the fold from a time-varying AR(1) fitted by likelihood (SCIENCE.md A1 "distance and
-// time to fold", A5 item 14; Boettiger & Hastings 2012, J R Soc Interface 9:2527, fit the fold's
+// Time to the fold from a time-varying AR(1) fitted by likelihood (docs/science.md §S4.1,
+// §S1.1; Boettiger & Hastings 2012, J R Soc Interface 9:2527, fit the fold's
 // stability change directly; Thompson & Sieber 2011, IMA J Appl Math 76:27, the normal-form rate).
 //
 // Near a fold driven linearly in time the recovery rate follows λ(t)² = c·(t_c − t) (square-root

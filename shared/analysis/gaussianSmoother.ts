@@ -1,6 +1,6 @@
 // Nadaraya–Watson smoothing with a Gaussian kernel, renormalised by the weights actually present
 // (so the ends are not pulled toward zero): ŝ(t_i) = Σ_j K_ij·y_j / Σ_j K_ij, K_ij = exp(−((t_j − t_i)/σ)²/2).
-// SCIENCE.md A3 step 1 and B3.
+// docs/science.md §S2.2.
 
 /** R `ksmooth(kernel = "normal", bandwidth = bw)` puts the kernel's quartiles at ±bw/4, so σ = 0.25·bw/Φ⁻¹(0.75). */
 export const KSMOOTH_SIGMA_PER_BANDWIDTH = 0.25 / 0.6744897501960817

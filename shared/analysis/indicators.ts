@@ -1,4 +1,4 @@
-// Window indicators (SCIENCE.md A3 step 3) from centred sums; shared by the exact and live paths.
+// Window indicators (docs/science.md §S2.4) from centred sums; shared by the exact and live paths.
 import type { CentredSums, Indicators, RecoveryRate } from './types'
 
 /** Context a window's sums do not carry. */
@@ -11,7 +11,7 @@ export interface IndicatorContext {
 
 /**
  * Variance (n − 1), SD, CV, NIST lag-1 autocorrelation, recovery rate, g₁ skewness and b₂
- * kurtosis from centred sums (definitions in SCIENCE.md A3 and B2).
+ * kurtosis from centred sums (definitions in docs/science.md §S2.4).
  */
 export function indicatorsFromSums(sums: CentredSums, context: IndicatorContext): Indicators {
   const { n, sum2, sum3, sum4, lagSum } = sums
@@ -39,7 +39,7 @@ export function indicatorsFromSums(sums: CentredSums, context: IndicatorContext)
 /** Fewer points than this leaves r₁ meaningless (its SE ≈ 1/√n exceeds 0.3). */
 export const MIN_SAMPLES_FOR_RECOVERY = 10
 
-/** k = −ln(AR1)/Δt (SCIENCE.md A2), or the reason it is not defined. */
+/** k = −ln(AR1)/Δt (docs/science.md §S2.3), or the reason it is not defined. */
 export function recoveryRate(ar1: number, dt: number, n: number): RecoveryRate {
   if (n < MIN_SAMPLES_FOR_RECOVERY) {
     return { status: 'too short', reason: `${n} samples, need ${MIN_SAMPLES_FOR_RECOVERY}` }

@@ -1,4 +1,4 @@
-// Kendall's rank correlation with ties (SCIENCE.md B1): τ-b, S, Var(S) and normal-approximation
+// Kendall's rank correlation with ties (docs/science.md §S3.4, §S12): τ-b, S, Var(S) and normal-approximation
 // p-values. The fast path is Knight's (1966) O(n log n) algorithm [from memory]: sort by (x, y),
 // then count the inversions of y with a merge sort.
 import { normalUpperTail } from './normal'

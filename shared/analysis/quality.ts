@@ -1,5 +1,5 @@
 // The quality gate: a window that fails it yields no indicators, so bad data can never alarm.
-// Checks run cheapest first; the first failure is reported (SCIENCE.md A5 items 7 and 9).
+// Checks run cheapest first; the first failure is reported (docs/science.md §S2.1).
 import { centredSums } from './moments'
 import type { QualityLimits, QualityVerdict } from './types'
 

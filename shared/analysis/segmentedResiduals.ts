@@ -1,4 +1,4 @@
-// Causal detrending that restarts after steps (SCIENCE.md A6 item 6, A5 item 10): a trip, reset,
+// Causal detrending that restarts after steps (docs/science.md §S2.2, §S3.3): a trip, reset,
 // setpoint or mode change puts a jump into the data that would dominate variance and AR1 for a
 // whole window and read as slowing down. A step is a run of residuals far outside the recent
 // noise, all on one side; the trend filter then starts again at the step, and samples within one

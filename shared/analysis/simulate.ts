@@ -1,4 +1,4 @@
-// Seeded simulations of the published analytic models (SCIENCE.md A1, A2), used by the engine's
+// Seeded simulations of the published analytic models (docs/science.md §S1.1, §S2.3), used by the engine's
 // own validation, its tests and its detection benchmark. The expected values are analytic.
 import type { Rng } from './random'
 
@@ -23,7 +23,7 @@ const valueAt = (f: number | ((t: number) => number), t: number): number => (typ
 
 /**
  * Ornstein–Uhlenbeck process sampled with its exact AR(1) step: φ = e^{−kΔ}, innovation variance
- * σ²(1 − e^{−2kΔ})/(2k) (SCIENCE.md A2), started from the stationary law N(m, σ²/(2k)).
+ * σ²(1 − e^{−2kΔ})/(2k) (docs/science.md §S2.3), started from the stationary law N(m, σ²/(2k)).
  */
 export function simulateOu(options: OuOptions, rng: Rng): SampledSeries {
   const { samples, dt } = options
@@ -66,7 +66,7 @@ export interface FoldRun extends SampledSeries {
 }
 
 /**
- * The perturbed fold normal form ẋ = r(t) + εx − x² + σξ (SCIENCE.md A1), integrated by
+ * The perturbed fold normal form ẋ = r(t) + εx − x² + σξ (docs/science.md §S1.1), integrated by
  * Euler–Maruyama and started on the stable branch x₊ = (ε + √(ε² + 4r))/2.
  */
 export function simulateFold(options: FoldOptions, rng: Rng): FoldRun {

@@ -1,4 +1,4 @@
-// The unit's slow mode (SCIENCE.md A4): a VAR(1) x_{t+1} = A·x_t + e_t fitted by Yule–Walker to
+// The unit's slow mode (docs/science.md §S5): a VAR(1) x_{t+1} = A·x_t + e_t fitted by Yule–Walker to
 // the tags' residuals; the eigenvalue of A with the largest modulus is the slowest joint recovery,
 // and its left eigenvector is the direction in which the unit recovers that slowly.
 import { EigenvalueDecomposition, inverse, Matrix } from 'ml-matrix'

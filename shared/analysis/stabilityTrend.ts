@@ -1,5 +1,5 @@
 // Is the series' stability changing? A likelihood-ratio test of an AR(1) with constant φ against
-// one whose φ changes linearly in time (SCIENCE.md A3 cautions, A5 item 14: Boettiger & Hastings
+// one whose φ changes linearly in time (docs/science.md §S3.1: Boettiger & Hastings
 // 2012, J R Soc Interface 9:2527). It reads the series directly, so it has no rolling windows
 // that lag half a window behind and smear the end of an approach, as Kendall τ of rolling AR1 does.
 //
@@ -35,7 +35,7 @@ export interface StabilityTrendFit {
  * drifting process enters an AR(1) as x_t = (1 − φ)·μ_t + φ·x_{t−1} + e_t, so a quadratic
  * intercept absorbs what a one-sided detrender leaves of a drifting or curving mean (the
  * residual of an accelerating or slowly oscillating mean), which would otherwise change the
- * apparent φ across the window (SCIENCE.md A5 item 13).
+ * apparent φ across the window (docs/science.md §S3.1).
  */
 export const INTERCEPT_DEGREE = 2 as const
 

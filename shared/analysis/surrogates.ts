@@ -1,4 +1,4 @@
-// Surrogate series under a stationary null (SCIENCE.md A3 step 5): same length and roughly the
+// Surrogate series under a stationary null (docs/science.md §S3.4): same length and roughly the
 // same variance and memory as the data, but no change of stability.
 import { fft, inverseFft } from './fft'
 import { centredSums } from './moments'
@@ -19,7 +19,7 @@ export function surrogateGenerator(kind: SurrogateKind, values: ArrayLike<number
   }
 }
 
-/** An AR(1) fitted by its moments (mean, variance, NIST r₁, SCIENCE.md A2) to the data. */
+/** An AR(1) fitted by its moments (mean, variance, NIST r₁, docs/science.md §S2.3) to the data. */
 export interface Ar1Fit {
   mean: number
   variance: number

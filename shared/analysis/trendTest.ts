@@ -1,6 +1,6 @@
 // Is an indicator's trend more than a stationary series would give? Kendall's τ of the rolling
-// indicator against time, judged against the same pipeline run on surrogate series (SCIENCE.md A3
-// steps 4–5). τ's own normal p-value is not used: overlapping windows make the indicator series
+// indicator against time, judged against the same pipeline run on surrogate series (docs/science.md §S3.4
+// and §S3.5). τ's own normal p-value is not used: overlapping windows make the indicator series
 // strongly autocorrelated and that p-value far too small.
 import { forEachFullWindow } from './indicatorSeries'
 import { forEachCountWindow } from './windowTracks'

@@ -9,7 +9,7 @@ export type WindowSpec =
  * How the slow trend is removed before indicators are computed.
  * - `gaussian`: centred Nadaraya–Watson kernel smoother, `bandwidth` = kernel SD in seconds.
  * - `localLinear`: one-sided (causal) exponentially weighted local-linear fit, `bandwidth` = the
- *   weight's e-folding time in seconds. It follows accelerating trends (SCIENCE.md A5 item 13) and
+ *   weight's e-folding time in seconds. It follows accelerating trends (docs/science.md §S2.2) and
  *   its residuals never change once computed, so the live path can use it incrementally.
  */
 export type DetrendSpec =
@@ -66,7 +66,7 @@ export type QualityVerdict =
   | { ok: true }
   | { ok: false, failed: QualityCheck, reason: string }
 
-/** Limits of the quality gate (SCIENCE.md A5 items 7 and 9). */
+/** Limits of the quality gate (docs/science.md §S2.1). */
 export interface QualityLimits {
   minSamples: number
   /** Largest allowed spacing between consecutive samples, seconds. */

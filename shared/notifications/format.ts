@@ -1,5 +1,5 @@
 // Human-readable times and durations for messages: UTC is stored, plant-local time is shown
-// beside it (DESIGN.md §10).
+// beside it (docs/design.md §D9).
 
 /** "2026-01-05 09:00:00 Europe/London (08:00:00 UTC)". */
 export function plantTime(iso: string | Date, timeZone: string): string {

@@ -1,4 +1,4 @@
-// Puts a unit's tags on one time grid for the VAR(1) slow-mode fit (SCIENCE.md A4), which needs
+// Puts a unit's tags on one time grid for the VAR(1) slow-mode fit (docs/science.md §S5), which needs
 // the tags sampled together: each tag's last sample in every cell of the coarsest sample period.
 
 export interface TagSeries {

@@ -138,7 +138,7 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, usableFrom: Int
 
 /**
  * Kendall τ of rolling AR1 and variance over the trend window, for people reading the charts:
- * the published summary of a trend (SCIENCE.md A3 step 4). The decision does not use them.
+ * the published summary of a trend (docs/science.md §S3.4). The decision does not use them.
  */
 function displayTaus(times: Float64Array, residuals: Float64Array, settings: IndicatorSettings) {
   const window = Math.min(settings.windowSamples, Math.floor(residuals.length / 2))

@@ -28,7 +28,7 @@ const ALPHA = 0.001
 export function defaultIndicatorSettings(samplePeriodS: number): IndicatorSettings {
   if (!(samplePeriodS > 0)) throw new RangeError(`sample period must be positive, got ${samplePeriodS}`)
   return {
-    // SE(r₁) ≈ √((1 − φ²)/n) (SCIENCE.md A2): 300 samples keep it under 0.06.
+    // SE(r₁) ≈ √((1 − φ²)/n) (docs/science.md §S2.3): 300 samples keep it under 0.06.
     windowSamples: 300,
     // Wide against the fluctuations measured, so the smoother does not absorb them (A3 step 1),
     // narrow enough that a mean curving over a few hundred samples leaves little behind (a 100-
@@ -58,7 +58,7 @@ export interface EvaluationDelays {
 /**
  * The slowing-down alert raises when two evaluations in a row (on-delay one evaluation interval)
  * say "slowing down". A tag is re-tested every 20 samples on overlapping data for as long as it
- * runs (SCIENCE.md A5 item 12), so α per look and the on-delay were set on whole records, short
+ * runs (docs/science.md §S8.2), so α per look and the on-delay were set on whole records, short
  * ones and week-long streams alike. Study (scripts/calibrateEarlyWarning.ts; short: SEEDS=150,
  * 500 samples; long: N=10080 SEEDS=12 ONLY="AR(1) φ 0.9", a week at 60 s) — records alerted:
  *   α      on-delay  harvesting fold  worst short null          long AR(1) φ 0.9 streams

@@ -1,5 +1,5 @@
 // Replays one tag rule over stored or simulated evaluation points exactly as the live task does:
-// the rule's measure of each point through the on-/off-delay condition tracker (SCIENCE.md §D).
+// the rule's measure of each point through the on-/off-delay condition tracker (docs/science.md §S7.3).
 // The detection study and its tests use it to count what the live alarm would have raised.
 import { INACTIVE, stepCondition, type ConditionSettings } from '../alarms/conditionTracker'
 import type { TagMeasure } from '../alarms/vocabulary'

@@ -1,4 +1,4 @@
-// The overview's status of one tag (DESIGN.md §3), from its data, its latest evaluation and its
+// The overview's status of one tag (docs/design.md §D3), from its data, its latest evaluation and its
 // open alarms. Data problems come first: a tag with no data or bad data shows that, never
 // "steady", and its indicators are not trusted.
 import type { AlarmClass, AlarmState, TagStatus } from '../alarms/vocabulary'

@@ -1,7 +1,7 @@
 export const ROLES = ['operator', 'engineer', 'supervisor', 'admin'] as const
 export type Role = typeof ROLES[number]
 
-/** Who may do what (DESIGN.md §2). The server checks these per route; the client only mirrors them. */
+/** Who may do what (docs/design.md §D2.1). The server checks these per route; the client only mirrors them. */
 export const CAPABILITY = {
   view: ['operator', 'engineer', 'supervisor', 'admin'],
   respond: ['operator', 'engineer', 'supervisor'],

@@ -126,7 +126,7 @@ function foldView(point: EvaluationPoint | null): FoldView {
 
 /**
  * The recovery rate drawn forward from the newest estimate to zero at the projected fold along
- * the square-root law k ∝ √(t_fold − t) (SCIENCE.md A1), no further than half the displayed
+ * the square-root law k ∝ √(t_fold − t) (docs/science.md §S1.1), no further than half the displayed
  * range past its end, so a distant fold does not squash the history.
  */
 function projectionPoints(fold: FoldView, newestRate: number | null, grid: BucketGrid) {

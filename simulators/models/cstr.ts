@@ -1,5 +1,5 @@
 // Exothermic CSTR with a first-order irreversible reaction and a cooling jacket, in the
-// dimensionless form of Uppal, Ray & Poore 1974 (Chem Eng Sci 29:967) as set out in SCIENCE.md C1.
+// dimensionless form of Uppal, Ray & Poore 1974 (Chem Eng Sci 29:967) as set out in docs/science.md §S10.1.
 // Time is in residence times θ = V/q; x1 is conversion; x2 = γ(T − T_f)/T_f.
 import { allRoots, firstLocalMaximum, numericalJacobian, slowestRate } from '../lib/numerics'
 
@@ -16,10 +16,10 @@ export interface CstrParameters {
   gamma: number
 }
 
-/** The benchmark set of SCIENCE.md C1 (three steady states at these values). */
+/** The benchmark set of docs/science.md §S10.1 (three steady states at these values). */
 export const URP_BENCHMARK: Readonly<CstrParameters> = { Da: 0.072, B: 8, beta: 0.3, x2c: 0, gamma: 20 }
 
-/** Parameters a plant can drift in, each with its own physical story (SCIENCE.md C1 table). */
+/** Parameters a plant can drift in, each with its own physical story (docs/science.md §S10.1). */
 export type CstrDriftParameter = 'Da' | 'beta' | 'x2c'
 
 function arrhenius(x2: number, gamma: number): number {

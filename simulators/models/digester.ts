@@ -1,9 +1,9 @@
 // Anaerobic digester: the methanogenic step of AM2 (Bernard et al. 2001, Biotechnol Bioeng
-// 75:424) with acidogenesis in quasi-steady state — the 2-state reduction of SCIENCE.md C3.
+// 75:424) with acidogenesis in quasi-steady state — the 2-state reduction of docs/science.md §S10.3.
 // State [X2, S2]: methanogen biomass (g/L) and volatile fatty acids (mmol/L); time in days.
 import { goldenMaximum, numericalJacobian, slowestRate } from '../lib/numerics'
 
-/** AM2 constants used by the reduction (SCIENCE.md C3 table). */
+/** AM2 constants used by the reduction (docs/science.md §S10.3). */
 export const AM2 = {
   mu2max: 0.74, // d⁻¹
   KS2: 9.28, // mmol/L

@@ -1,6 +1,6 @@
 // Two-bus power system: a stiff source E∠0 behind reactance X feeding a load P + jQ, Q = P·tanφ,
 // with 1-state load restoration (simplest case of Karlsson & Hill 1994, IEEE Trans Power Syst
-// 9(1):157). All quantities per unit; time in seconds. SCIENCE.md C2.
+// 9(1):157). All quantities per unit; time in seconds. docs/science.md §S10.2.
 import { bisect, goldenMaximum } from '../lib/numerics'
 
 export interface TwoBusParameters {
@@ -14,7 +14,7 @@ export interface TwoBusParameters {
   Tp: number
 }
 
-/** E = 1, X = 0.5 pu, unity power factor, T_p = 60 s: the set SCIENCE.md C2 tabulates. */
+/** E = 1, X = 0.5 pu, unity power factor, T_p = 60 s: the set docs/science.md §S10.2 tabulates. */
 export const TWO_BUS_REFERENCE: Readonly<TwoBusParameters> = { E: 1, X: 0.5, tanPhi: 0, Tp: 60 }
 
 /** Load-bus voltage when the load draws admittance G (with susceptance G·tanφ). */

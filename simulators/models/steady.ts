@@ -1,6 +1,6 @@
 // A well-controlled variable: an Ornstein–Uhlenbeck process dX = −k(X − setpoint)dt + σ dW around
 // its setpoint. Its recovery rate k never changes, so an early-warning monitor must stay quiet on
-// it: it is the demo's control unit. SCIENCE.md A2 gives its stationary law.
+// it: it is the demo's control unit. docs/science.md §S2.3 gives its stationary law.
 
 export interface SteadyLoopParameters {
   setpoint: number
@@ -15,7 +15,7 @@ export function steadyLoopDerivative(p: SteadyLoopParameters) {
   return ([x]: readonly number[]): number[] => [-p.k * (x! - p.setpoint)]
 }
 
-/** Stationary variance σ²/(2k) (SCIENCE.md A2). */
+/** Stationary variance σ²/(2k) (docs/science.md §S2.3). */
 export function steadyLoopVariance(p: SteadyLoopParameters): number {
   return p.sigma ** 2 / (2 * p.k)
 }

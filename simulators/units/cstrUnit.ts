@@ -1,4 +1,4 @@
-// the exothermic reactor of SCIENCE.md C1 (URP benchmark) on its cool branch. The
+// the exothermic reactor of docs/science.md §S10.1 (URP benchmark) on its cool branch. The
 // cooling-water supply warms slowly (a tower losing capacity in summer, say) until the cool
 // state disappears at the ignition fold and the reactor runs away to its hot state.
 import {
@@ -7,7 +7,7 @@ import {
 } from '../models/cstr'
 import { createDriftingUnit, type UnitOptions } from './simulatedUnit'
 
-// Invented plant: feed at 350 K and 1 mol/L, residence time 10 min (SCIENCE.md C1: θ = 1–30 min).
+// Invented plant: feed at 350 K and 1 mol/L, residence time 10 min (docs/science.md §S10.1: θ = 1–30 min).
 const SCALE: CstrPlantScale = { feedTemperature: 350, feedConcentration: 1 }
 const RESIDENCE_TIME_SECONDS = 600
 const { gamma } = URP_BENCHMARK
@@ -32,7 +32,7 @@ export function createCstrUnit(options: UnitOptions) {
     code: 'cstr',
     modelTimePerWallSecond: RESIDENCE_TIMES_PER_WALL_SECOND,
     maxStep: 0.01,
-    // Feed concentration and temperature fluctuations of about 0.5–1% (SCIENCE.md C1) as additive noise.
+    // Feed concentration and temperature fluctuations of about 0.5–1% (docs/science.md §S10.1) as additive noise.
     noiseSd: [0.005, 0.02],
     cycle: {
       start: URP_BENCHMARK.x2c,

@@ -1,4 +1,4 @@
-// D-200: the anaerobic digester of SCIENCE.md C3 (AM2, 2-state reduction). Feed flow creeps up,
+// D-200: the anaerobic digester of docs/science.md §S10.3 (AM2, 2-state reduction). Feed flow creeps up,
 // so the dilution rate D rises toward D_c, where methanogens can no longer outgrow washout: VFA
 // accumulate, pH falls, biogas dries up.
 import {
@@ -6,7 +6,7 @@ import {
 } from '../models/digester'
 import { createDriftingUnit, type UnitOptions } from './simulatedUnit'
 
-// Effective VFA load the acidogens hand on: the value SCIENCE.md C3 tabulates eigenvalues for.
+// Effective VFA load the acidogens hand on: the value docs/science.md §S10.3 lists eigenvalues for.
 const S2_EFFECTIVE = 100
 // Invented plant size and gas make-up.
 const REACTOR_VOLUME_LITRES = 500_000
@@ -16,16 +16,16 @@ const MOLAR_GAS_VOLUME_M3 = 0.0224 // m³/mol at 0 °C, 1 atm
 // CO₂ from Henry's law. Z, the CO₂ partial pressure and pK are plausible values for a digester
 // [from memory], chosen so pH sits near 7.4 at work and sours toward 6.4 when VFA pile up.
 const ALKALINITY_Z = 110 // mmol/L
-const DISSOLVED_CO2 = 16 * 0.35 // K_H (mmol/(L·atm), SCIENCE.md C3) × P_CO2 0.35 atm
+const DISSOLVED_CO2 = 16 * 0.35 // K_H (mmol/(L·atm), docs/science.md §S10.3) × P_CO2 0.35 atm
 const PK_CARBONIC = 6.19 // −log10(6.5e-7 mol/L)
 
 // One wall second is 8 process hours: at the start the digester relaxes in ~4 days ≈ 13 wall
-// seconds. The approach is far slower than a real one (SCIENCE.md C3: 30–100 d) so that it spans
+// seconds. The approach is far slower than a real one (docs/science.md §S10.3: 30–100 d) so that it spans
 // enough relaxation times for the slowing down to show at demo pace.
 const DAYS_PER_WALL_SECOND = 1 / 3
 const WALL_MINUTES_TO_FOLD = 45
 const WALL_MINUTES_TIPPED = 5
-// Slowing down only shows within ~5–7% of D_c (SCIENCE.md C3), so the demo starts close to it.
+// Slowing down only shows within ~5–7% of D_c (docs/science.md §S10.3), so the demo starts close to it.
 const START_DILUTION = 0.98 // d⁻¹
 // Well above the working branch (S2* ≤ 48.7 mmol/L) and its saddle at the fold: soured.
 const SOURED_VFA = 80

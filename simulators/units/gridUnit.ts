@@ -1,4 +1,4 @@
-// B-300: a load bus at the end of a long line (SCIENCE.md C2 two-bus model with load
+// B-300: a load bus at the end of a long line (docs/science.md §S10.2 two-bus model with load
 // restoration). Demand grows toward the nose of the P–V curve; past it the restoring loads pull
 // the voltage down until undervoltage protection sheds them.
 import {
@@ -6,10 +6,10 @@ import {
 } from '../models/grid'
 import { createDriftingUnit, type UnitOptions } from './simulatedUnit'
 
-// SCIENCE.md C2 reference network with a lagging load at power factor 0.98 (tanφ = 0.2).
+// docs/science.md §S10.2 reference network with a lagging load at power factor 0.98 (tanφ = 0.2).
 const NETWORK: TwoBusParameters = { E: 1, X: 0.5, tanPhi: 0.2, Tp: 60 }
 const BASE_MW = 100
-// Ambient load fluctuation: OU with 5 s correlation and 1% of demand (SCIENCE.md C2: 0.5–2%, 1–10 s).
+// Ambient load fluctuation: OU with 5 s correlation and 1% of demand (docs/science.md §S10.2: 0.5–2%, 1–10 s).
 const LOAD_NOISE_CORRELATION_S = 5
 const LOAD_NOISE_SD = 0.01
 // Four process seconds per wall second: far from the nose loads restore in ~80 s ≈ 20 wall seconds.

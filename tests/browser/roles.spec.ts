@@ -7,7 +7,7 @@ import type { Role } from '../../shared/utils/roles'
 
 await setupBuiltServer()
 
-// DESIGN.md §2: each role sees its own work. Admin pages are only in the admin's navigation.
+// docs/design.md §D2.1: each role sees its own work. Admin pages are only in the admin's navigation.
 const EXPECTED_NAV: Record<Role, string[]> = {
   operator: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log'],
   engineer: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Upload history'],

@@ -28,7 +28,7 @@ beforeAll(async () => {
   }
 })
 
-// Flood: more than 10 alarms in 10 minutes (ISA-18.2 / EEMUA 191, SCIENCE.md §D [R: University of
+// Flood: more than 10 alarms in 10 minutes (ISA-18.2 / EEMUA 191, docs/science.md §S7.4 [R: University of
 // Alberta alarm-research page]). Past it, one digest replaces a mail per alarm.
 describe('alarm flood', () => {
   it('sends at most 10 single alarm mails per 10 minutes on a site and gathers the rest into one digest', async () => {

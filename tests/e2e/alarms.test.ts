@@ -52,9 +52,9 @@ describe('alarm rules API', () => {
   })
 })
 
-describe('live alarm lifecycle (ISA-18.2 state-transition diagram per SCIENCE.md §D) and mail', () => {
+describe('live alarm lifecycle (ISA-18.2 state-transition diagram per docs/science.md §S7.2) and mail', () => {
   let alarmId = 0
-  it('mails within 2 ticks of the sample that completes the condition (DESIGN.md §9), with the advisory caution (DESIGN.md §1)', async () => {
+  it('mails within 2 ticks of the sample that completes the condition (docs/design.md §D11), with the advisory caution (docs/design.md §D1)', async () => {
     await feed(90, 91, 92, 93)
     await tick()
     expect(await alarmOf()).toHaveLength(0)
@@ -93,7 +93,7 @@ describe('live alarm lifecycle (ISA-18.2 state-transition diagram per SCIENCE.md
     expect((await call('/api/alarms/acknowledge', { method: 'POST', cookie: operator, json: { ids: [] } })).body.message).toContain('ids')
   })
 
-  it('C → A only once the value is beyond the deadband (SCIENCE.md §D: clear when x < H − DB)', async () => {
+  it('C → A only once the value is beyond the deadband (docs/science.md §S7.3: clear when x < H − DB)', async () => {
     await feed(97, 96)
     await tick()
     expect((await alarmOf())[0].state).toBe('acknowledged')

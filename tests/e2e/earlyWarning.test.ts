@@ -46,10 +46,10 @@ const FIXED_START_MS = Date.UTC(2026, 0, 5, 0, 0, 0)
 
 const alarmsOn = (tagIds: number[]) => sql`select a.raised_at, r.name from alarms a join alarm_rules r on r.id = a.rule_id where a.tag_id = any(${tagIds}) order by a.raised_at`
 
-describe('early warning over simulated plants (DESIGN.md §9 detection)', () => {
-  // The control: the steady feed tank's two loops (OU processes, SCIENCE.md A2) never change
-  // stability, so over a simulated week no rule may raise anything (DESIGN.md §9; false alarms
-  // from repeated looks, SCIENCE.md A5 item 12). Sampled every 60 s to keep the week short.
+describe('early warning over simulated plants (docs/design.md §D11 detection)', () => {
+  // The control: the steady feed tank's two loops (OU processes, docs/science.md §S2.3) never change
+  // stability, so over a simulated week no rule may raise anything (docs/design.md §D11; false alarms
+  // from repeated looks, docs/science.md §S8.1). Sampled every 60 s to keep the week short.
   // α and the on-delay come from the whole-procedure study, not from a lucky seed: on this unit
   // (scripts/bench/detection.ts steadyUnitNulls, seeds 1–12) the procedure raised 1 false
   // slowing-down alert in 24 tag-weeks, and this week (seed 7) holds it. So the check is the
@@ -77,7 +77,7 @@ describe('early warning over simulated plants (DESIGN.md §9 detection)', () => 
     expect(raised.length, JSON.stringify(raised)).toBeLessThanOrEqual(1)
   })
 
-  // Approach to voltage collapse: the demo load bus (SCIENCE.md C2, two-bus model with load
+  // Approach to voltage collapse: the demo load bus (docs/science.md §S10.2, two-bus model with load
   // restoration) driven until it tips, its samples ingested as they would have arrived.
   it('alerts on the approach to a fold before the tip', async () => {
     // A unit of its own, so its slow mode is fitted from these two tags alone.
@@ -101,7 +101,7 @@ describe('early warning over simulated plants (DESIGN.md §9 detection)', () => 
     const leadMinutes = (tipMs! + shift - new Date(warning!.raised_at).getTime()) / 60_000
     console.log(`early-warning alert ${leadMinutes.toFixed(1)} min before the tip`)
     expect(leadMinutes).toBeGreaterThan(2)
-    // The unit's slow mode (SCIENCE.md A4): each tag's share of the leading left eigenvector,
+    // The unit's slow mode (docs/science.md §S5): each tag's share of the leading left eigenvector,
     // normalised to sum to 1, stored once the tick has processed both tags.
     const [mode] = await sql`select m.shares, m.recovery_rate from unit_slow_mode m join units u on u.id = m.unit_id where u.code = 'B-391'`
     expect(mode, 'no slow mode stored for the unit').toBeTruthy()

@@ -37,7 +37,7 @@ beforeAll(async () => {
 const outboxRow = async () => (await sql`
   select o.id, o.status, o.attempts, o.next_attempt_at from notification_outbox o join alarms a on a.id = o.alarm_id where a.tag_id = ${tagId}`)
 
-describe('notification outbox survives a crash (DESIGN.md §6: written with the state change; retried with backoff)', () => {
+describe('notification outbox survives a crash (docs/design.md §D4 items 5–6: written with the state change; retried with backoff)', () => {
   it('records a failed attempt and backs off while the relay is down', async () => {
     const t0 = Date.now() - 60_000
     await ingestAll([90, 101].map((value, i) => ({ tag: TAG, time: new Date(t0 + i * 1000).toISOString(), value })))

@@ -34,7 +34,7 @@ describe('GET /api/tags/:id/series', () => {
       expect(s[key], key).toHaveLength(s.time.length)
     const ar1 = s.ar1.filter((v: number | null) => v !== null)
     expect(ar1.length).toBeGreaterThan(500)
-    // OU sampled every Δ = 1 s with k = 0.2/s has AR(1) coefficient e^{−kΔ} ≈ 0.82 (SCIENCE.md A2);
+    // OU sampled every Δ = 1 s with k = 0.2/s has AR(1) coefficient e^{−kΔ} ≈ 0.82 (docs/science.md §S2.3);
     // the trend filter and a 300-sample window pull the estimate down a little.
     const mean = ar1.reduce((a: number, b: number) => a + b, 0) / ar1.length
     expect(mean).toBeGreaterThan(0.7)

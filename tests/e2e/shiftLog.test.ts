@@ -42,7 +42,7 @@ describe('POST /api/shift-log', () => {
     expect(res.body.message).toMatch(/tagId: tag \d+ is not on unit/)
   })
 
-  it('lets operators, engineers and supervisors write; admins and strangers may not (DESIGN.md §2)', async () => {
+  it('lets operators, engineers and supervisors write; admins and strangers may not (docs/design.md §D2.1)', async () => {
     for (const role of ['engineer', 'supervisor'] as const) {
       const cookie = await signInAs(role)
       expect((await call('/api/shift-log', { method: 'POST', cookie, json: { body: `${role} note` } })).status).toBe(201)

@@ -16,8 +16,8 @@ function activations(settings: ConditionSettings, times: number[], values: numbe
 
 const HIGH: ConditionSettings = { comparison: 'above', threshold: 80, deadband: 0, onDelayS: 0, offDelayS: 0 }
 
-describe('condition tracker (generic limit logic, SCIENCE.md §D)', () => {
-  it('activates at x ≥ H and clears at x < H − deadband (SCIENCE.md §D, derived)', () => {
+describe('condition tracker (generic limit logic, docs/science.md §S7.3)', () => {
+  it('activates at x ≥ H and clears at x < H − deadband (docs/science.md §S7.3, derived)', () => {
     const rule = { ...HIGH, deadband: 4 }
     let s = stepCondition(rule, INACTIVE, 0, 80)
     expect(s.change).toBe('activate')
@@ -64,8 +64,8 @@ describe('condition tracker (generic limit logic, SCIENCE.md §D)', () => {
     expect(stepCondition(rule, on.state, 1, Number.POSITIVE_INFINITY).change).toBe('return')
   })
 
-  // Chattering: ≥3 activations in 60 s (SCIENCE.md §D [R: secondary page]). Flow starting values
-  // from the ISA-18.2-2009 tables (TR18.2.3): 5 % of span deadband, 15 s delays (SCIENCE.md §D
+  // Chattering: ≥3 activations in 60 s (docs/science.md §S7.4 [R: secondary page]). Flow starting values
+  // from the ISA-18.2-2009 tables (TR18.2.3): 5 % of span deadband, 15 s delays (docs/science.md §S7.3
   // [from memory]). The signal is an invented flow swinging slowly across its high limit (span
   // 0–100) with 1 % noise: it really exceeds the limit three times, and chatters at each crossing.
   it('deadband and delays stop a noisy signal at its limit from chattering', () => {

@@ -11,7 +11,7 @@ describe('whole-procedure false-alarm calibration', () => {
   })
 
   // A procedure that alarms when a single week-long record's lag-1 sample correlation of white
-  // noise exceeds its one-sided 5% point 1.645/√n (SE of r₁ ≈ 1/√n for white noise, SCIENCE.md A2
+  // noise exceeds its one-sided 5% point 1.645/√n (SE of r₁ ≈ 1/√n for white noise, docs/science.md §S2.3
   // with φ = 0) must alarm in ≈ 5% of tag-weeks: the count over 400 weeks stays within Poisson-
   // style bounds of the expected 20 (here 20 ± 4.5·√20).
   it('measures the alarm rate of a procedure per tag-week', () => {

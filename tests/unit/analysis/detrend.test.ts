@@ -9,19 +9,19 @@ const maxAbsDiff = (a: ArrayLike<number>, b: ArrayLike<number>): number =>
   Array.from(a).reduce((worst, v, i) => Math.max(worst, Math.abs(v - b[i]!)), 0)
 
 describe('Gaussian kernel smoother (Nadaraya–Watson, renormalised at the ends)', () => {
-  // SCIENCE.md B3 check values [C] for y = [1, 2, 3, 10, 5, 6, 7] at t = 0…6, printed to 6 decimals.
+  // docs/science.md §S12 check values [C] for y = [1, 2, 3, 10, 5, 6, 7] at t = 0…6, printed to 6 decimals.
   const t = [0, 1, 2, 3, 4, 5, 6]
   const y = [1, 2, 3, 10, 5, 6, 7]
   it.each([
     [1, [1.558110, 2.473493, 4.472382, 6.394302, 6.444593, 6.214698, 6.517922]],
     [2, [2.945736, 3.699733, 4.534523, 5.296636, 5.851655, 6.178338, 6.351118]],
-  ])('σ = %i matches SCIENCE.md B3 (reference, and the fast one with truncation at 8σ)', (sigma, expected) => {
+  ])('σ = %i matches docs/science.md §S12 (reference, and the fast one with truncation at 8σ)', (sigma, expected) => {
     expected.forEach((v, i) => expect(gaussianSmoothReference(t, y, sigma)[i]).toBeCloseTo(v, 6))
     expected.forEach((v, i) => expect(gaussianSmooth(t, y, sigma, 8)[i]).toBeCloseTo(v, 6))
   })
 
   // R ksmooth(kernel = "normal") puts the kernel quartiles at ±bandwidth/4 (R documentation, quoted
-  // in SCIENCE.md B3), so σ = 0.25·bw/Φ⁻¹(0.75) = 0.3706506·bw.
+  // in docs/science.md §S2.2), so σ = 0.25·bw/Φ⁻¹(0.75) = 0.3706506·bw.
   it('converts an R ksmooth bandwidth with σ = 0.3706506·bw', () => {
     expect(KSMOOTH_SIGMA_PER_BANDWIDTH).toBeCloseTo(0.3706506, 7)
     expect(KSMOOTH_SIGMA_PER_BANDWIDTH).toBeCloseTo(0.25 / normalQuantile(0.75), 14)
@@ -73,7 +73,7 @@ describe('one-sided local-linear trend', () => {
   })
 
   // By contrast the centred smoother lags at the end of a ramp by the mean of a half-Gaussian,
-  // σ·√(2/π) (derived here): the artefact of SCIENCE.md A5 item 13.
+  // σ·√(2/π) (derived here): the artefact of docs/science.md §S2.2.
   it('unlike the centred Gaussian smoother, whose end-of-record residual on a ramp is slope·σ·√(2/π)', () => {
     const ramp = Float64Array.from(times, t => 0.02 * t)
     const { residuals } = detrend(times, ramp, { kind: 'gaussian', bandwidth: 100 })

@@ -16,13 +16,13 @@ const recovery = (indicators: Indicators): number => {
   return indicators.recovery.rate
 }
 
-// OU → AR(1) (SCIENCE.md A2 / B4): k = 0.5, σ = 0.3, Δ = 0.1 gives φ = e^{−0.05} = 0.951229 and
+// OU → AR(1) (docs/science.md §S2.3 / §S12): k = 0.5, σ = 0.3, Δ = 0.1 gives φ = e^{−0.05} = 0.951229 and
 // stationary variance σ²/(2k) = 0.09. Tolerances are 4.5 standard errors from sampling theory:
-//   SE(φ̂) ≈ √((1 − φ²)/n)                                  (SCIENCE.md A2)
+//   SE(φ̂) ≈ √((1 − φ²)/n)                                  (docs/science.md §S2.3)
 //   SE(s²) ≈ √(2·Var²·(1 + φ²)/((1 − φ²)·n))               (Bartlett's formula for AR(1) [from memory])
-//   relSE(k̂) ≈ √((1 − φ²)/n)/(φ·|ln φ|)                    (SCIENCE.md A2)
-// plus the estimator's bias −(1 + 4φ)/n on φ̂ (SCIENCE.md A2 table), negligible at this n.
-describe('OU process sampled as AR(1) (analytic values, SCIENCE.md A2)', () => {
+//   relSE(k̂) ≈ √((1 − φ²)/n)/(φ·|ln φ|)                    (docs/science.md §S2.3)
+// plus the estimator's bias −(1 + 4φ)/n on φ̂ (docs/science.md §S2.3 table), negligible at this n.
+describe('OU process sampled as AR(1) (analytic values, docs/science.md §S2.3)', () => {
   const k = 0.5
   const sigma = 0.3
   const dt = 0.1
@@ -45,7 +45,7 @@ describe('OU process sampled as AR(1) (analytic values, SCIENCE.md A2)', () => {
   })
 })
 
-// Fold normal form ẋ = r + εx − x² (SCIENCE.md A1): at the stable branch λ = −2√(r − r_c) with
+// Fold normal form ẋ = r + εx − x² (docs/science.md §S1.1): at the stable branch λ = −2√(r − r_c) with
 // r_c = −ε²/4, so λ² = 4(r − r_c) is linear in r with slope 4.
 describe('fold normal form: the recovery rate follows λ² = 4(r − r_c)', () => {
   const epsilon = 0.2

@@ -56,8 +56,8 @@ describe('surrogates', () => {
   })
 
   // AR(1) surrogates follow the fitted model: the pooled r₁ of 40 surrogates of length 301 has
-  // SE ≈ √((1 − φ²)/(40·301)) (SCIENCE.md A2) ≈ 0.0055, plus the small-sample bias −(1 + 4φ)/n ≈ −0.014
-  // of the NIST r₁ estimator (SCIENCE.md A2 table); we allow bias + 5 SE.
+  // SE ≈ √((1 − φ²)/(40·301)) (docs/science.md §S2.3) ≈ 0.0055, plus the small-sample bias −(1 + 4φ)/n ≈ −0.014
+  // of the NIST r₁ estimator (docs/science.md §S2.3 table); we allow bias + 5 SE.
   it('AR(1) surrogates reproduce the fitted φ within bias + 5 SE', () => {
     const fit = fitAr1(data)
     const generate = ar1SurrogateGenerator(data)

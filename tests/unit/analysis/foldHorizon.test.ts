@@ -23,9 +23,9 @@ function horizonOf(run: SampledSeries, detrend: DetrendSpec): FoldHorizon {
   return foldHorizon(points, { windowSeconds: windowSamples * dt, alpha: 0.01, confidence: 0.9, now: 800 })
 }
 
-// Fold normal form ẋ = r(t) − x² + σξ with r(t) = 1 − t/1000 (SCIENCE.md A1): λ² = 4r falls
+// Fold normal form ẋ = r(t) − x² + σξ with r(t) = 1 − t/1000 (docs/science.md §S1.1): λ² = 4r falls
 // linearly in time and reaches zero at the fold, t* = 1000. Observed up to t = 800 (r = 0.2).
-describe('fold horizon on a slow ramp toward the fold (SCIENCE.md A1)', () => {
+describe('fold horizon on a slow ramp toward the fold (docs/science.md §S1.1)', () => {
   const runs = Array.from({ length: 20 }, (_, seed) => simulateFold({
     samples: 8000, dt, substeps: 10, r: t => 1 - t / 1000, epsilon: 0, sigma: 0.05, tippedBelow: -3,
   }, createRng(1000 + seed)))

@@ -3,7 +3,7 @@ import { kendallTau, kendallTauNaive } from '#shared/analysis/kendall'
 import { createRng } from '#shared/analysis/random'
 
 describe('Kendall τ worked examples', () => {
-  // Hollander & Wolfe (1973) p. 187f tuna data, base R cor.test example (SCIENCE.md B1 item 1):
+  // Hollander & Wolfe (1973) p. 187f tuna data, base R cor.test example (docs/science.md §S12):
   // R prints T = 26; exact=FALSE gives one-sided p = 0.04765 (no continuity correction, z = 1.668115).
   it('tuna data: τ = 0.4444444, S = 16, Var(S) = 92, z = 1.668115, p(greater) = 0.04765', () => {
     const x = [44.4, 45.9, 41.9, 53.3, 44.7, 44.1, 50.7, 45.2, 60.1]
@@ -16,8 +16,8 @@ describe('Kendall τ worked examples', () => {
     expect(result.pGreater).toBeCloseTo(0.04765, 5)
   })
   // Kendall (1976) Rank Correlation Methods Ex. 3.4 and Ex. 4.3, via the R package `Kendall`
-  // documentation (SCIENCE.md B1 items 2–3): documented S = 34 for both, τ = 0.41 for Ex. 3.4 and
-  // Var(S) = 203.30 for Ex. 4.3; the τ-b, τ-a and Var(S) digits are SCIENCE.md's computed values [C].
+  // documentation (docs/science.md §S12): documented S = 34 for both, τ = 0.41 for Ex. 3.4 and
+  // Var(S) = 203.30 for Ex. 4.3; the τ-b, τ-a and Var(S) digits are computed values [C] (docs/science.md §S12).
   it.each([
     {
       name: 'Ex. 3.4 (heavy ties)', s: 34, tauB: 0.4075438063, tauA: 0.25, varianceS: 344.5588,

@@ -19,7 +19,7 @@ function incrementalIndicators(values: ArrayLike<number>): Indicators {
   return window.indicators()
 }
 
-// NIST StRD univariate certified values (SCIENCE.md B2; certified to 15 significant digits).
+// NIST StRD univariate certified values (docs/science.md §S12; certified to 15 significant digits).
 // PiDigits is skipped: its 5000-value data file is not available offline.
 describe.each(NIST_DATASETS)('NIST StRD $name (certified values)', (set) => {
   // NumAcc3/4 store c + 0.1 and c + 0.3 with a rounding error of up to half a unit in the last
@@ -38,7 +38,7 @@ describe.each(NIST_DATASETS)('NIST StRD $name (certified values)', (set) => {
 })
 
 describe('exact small data set y = [2, 4, 4, 4, 5, 5, 7, 9]', () => {
-  // Values derived by hand in SCIENCE.md B2 ("Exact tiny dataset" [D, C]).
+  // Values derived by hand in docs/science.md §S12 [D, C].
   const y = [2, 4, 4, 4, 5, 5, 7, 9]
   const result = indicatorsFromSums(centredSums(y), { dt: 1, levelMean: 5 })
   it('has s² = 32/7, g₁ = 21/32, b₂ = 89/32, r₁ = 13/32, CV = 0.4276179871', () => {
@@ -51,7 +51,7 @@ describe('exact small data set y = [2, 4, 4, 4, 5, 5, 7, 9]', () => {
   })
 })
 
-describe('higher moments against simple-statistics 7.12.1 and SCIENCE.md B2 regression values', () => {
+describe('higher moments against simple-statistics 7.12.1 and docs/science.md §S12 regression values', () => {
   // simple-statistics: sampleVariance divides by n − 1; sampleSkewness(x, true) is g₁ and
   // sampleSkewness(x) the adjusted G₁ = g₁·√(n(n−1))/(n−2); sampleKurtosis is the adjusted excess
   // G₂ = ((n+1)g₂ + 6)(n−1)/((n−2)(n−3)) (read in its source, which cites Excel/SAS/SciPy).
@@ -68,7 +68,7 @@ describe('higher moments against simple-statistics 7.12.1 and SCIENCE.md B2 regr
     expect(relativeError(adjustedExcess(result.excessKurtosis, n), sampleKurtosis(values))).toBeLessThan(1e-10)
   })
 
-  // SCIENCE.md B2 table "Non-certified higher moments of the NIST sets" [C] (scipy), 10 digits.
+  // docs/science.md §S12 (g₁, g₂ of the NIST sets) [C] (scipy), 10 digits.
   const published: Record<string, [g1: number, g2: number]> = {
     Michelso: [-0.0182596140, 0.2635305323],
     Lew: [-0.0502262955, -1.4887601738],

@@ -3,7 +3,7 @@ import { analyseWindow } from '#shared/analysis/pipeline'
 import { checkQuality, DEFAULT_QUALITY_LIMITS } from '#shared/analysis/quality'
 import { createRng } from '#shared/analysis/random'
 
-// Each check is fed the defect it is meant to catch (SCIENCE.md A5 items 7 and 9) and a clean
+// Each check is fed the defect it is meant to catch (docs/science.md §S2.1) and a clean
 // signal it must pass; the limits are the defaults in quality.ts.
 const n = 1000
 const times = Float64Array.from({ length: n }, (_, i) => 10 * i)

@@ -59,7 +59,7 @@ describe('incremental window equals a from-scratch computation (1e-9 relative, t
   })
 })
 
-describe('rolling-window toy series (SCIENCE.md B4, computed values [C])', () => {
+describe('rolling-window toy series (docs/science.md §S12, computed values [C])', () => {
   const y = Float64Array.from([2, 4, 4, 4, 5, 5, 7, 9, 6, 8])
   const series = indicatorSeries(Float64Array.from(y, (_, i) => i), y, { window: { kind: 'count', samples: 5 } })
   it('gives s² = [1.2, 0.3, 1.5, 4.0, 2.8, 2.5] and r₁ = [−0.008333, 0.366667, 0.166667, 0.3125, 0.146429, −0.3]', () => {

@@ -24,13 +24,13 @@ function simulateVar2(a: number[][], q: number[][], n: number, seed: number): [F
   return x
 }
 
-// SCIENCE.md A4 analytic check case [C]: J = [[−1, 0.5], [0, −0.1]], Δ = 0.5,
+// docs/science.md §S5 check case [C]: J = [[−1, 0.5], [0, −0.1]], Δ = 0.5,
 // A = expm(JΔ) = [[0.606531, 0.191499], [0, 0.951229]], eigenvalues e^{−0.5} and e^{−0.05},
 // Q_d = [[0.003231, 0.000507], [0.000507, 0.004758]]. The left eigenvector of the slow eigenvalue
 // is (0, 1) (from wᵀ(J + 0.1·I) = 0), so the slow mode sits entirely on tag 2.
 // Tolerance: each eigenvalue estimate behaves like an AR(1) coefficient, SE ≈ √((1 − μ²)/n)
-// (SCIENCE.md A2; an approximation for the coupled case), and we allow 4.5 SE.
-describe('VAR(1) slow mode on the SCIENCE.md A4 check case', () => {
+// (docs/science.md §S2.3; an approximation for the coupled case), and we allow 4.5 SE.
+describe('VAR(1) slow mode on the docs/science.md §S5 check case', () => {
   const a = [[0.606531, 0.191499], [0, 0.951229]]
   const q = [[0.003231, 0.000507], [0.000507, 0.004758]]
   const n = 100_000

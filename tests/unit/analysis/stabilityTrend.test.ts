@@ -3,7 +3,7 @@ import { createRng, type Rng } from '#shared/analysis/random'
 import { fitStabilityTrend, stabilityTrendTest } from '#shared/analysis/stabilityTrend'
 import { binomialBounds } from './support/binomial'
 
-/** x_t = φ(t)·x_{t−1} + e_t, e ~ N(0, 1), started from the stationary law of φ(0) (SCIENCE.md A2). */
+/** x_t = φ(t)·x_{t−1} + e_t, e ~ N(0, 1), started from the stationary law of φ(0) (docs/science.md §S2.3). */
 function ar1(n: number, phi: (t: number) => number, rng: Rng): Float64Array {
   const out = new Float64Array(n)
   out[0] = rng.normal() / Math.sqrt(1 - phi(0) ** 2)
@@ -27,7 +27,7 @@ describe('likelihood-ratio statistic under a constant φ', () => {
     expect(exceed).toBeLessThanOrEqual(high)
   })
 
-  // Monte-Carlo test validity (Davison & Hinkley 1997, via SCIENCE.md A3 step 5): with a fitted
+  // Monte-Carlo test validity (Davison & Hinkley 1997, via docs/science.md §S3.5): with a fitted
   // null the bootstrap p is ≈ uniform, so p ≤ 0.05 on ≈ 5% of null series, also near the unit
   // root (φ = 0.95) where Wilks' χ²₁ is not trusted. Count ~ Binomial(200, 0.05).
   it.each([0.5, 0.95])('bootstrap p ≤ 0.05 on 1 in 20 of 200 null series (φ = %s, n = 900), within binomial bounds', (phi) => {
@@ -44,7 +44,7 @@ describe('likelihood-ratio statistic under a constant φ', () => {
 describe('slope of φ under a known linear drift', () => {
   // φ(t) = 0.5 + 0.4·s_t rises from 0.3 to 0.7 across n = 4000 samples. Asymptotic OLS theory
   // for stationary autoregressions (Hamilton 1994, ch. 8 [from memory]) with E[x²_{t−1}] ≈
-  // 1/(1 − φ_t²) (SCIENCE.md A2, slowly varying φ) gives Var(b̂) = [M⁻¹]₂₂ with
+  // 1/(1 − φ_t²) (docs/science.md §S2.3, slowly varying φ) gives Var(b̂) = [M⁻¹]₂₂ with
   // M = Σ E[x²]·[[1, s], [s, s²]]: the derived SE below [D].
   const n = 4000
   const truth = 0.4

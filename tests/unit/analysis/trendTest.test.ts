@@ -5,7 +5,7 @@ import { surrogateTrendTest } from '#shared/analysis/trendTest'
 import type { SurrogateKind } from '#shared/analysis/surrogates'
 import { binomialBounds } from './support/binomial'
 
-// Monte-Carlo test validity (Davison & Hinkley 1997, via SCIENCE.md A3 step 5): under a stationary
+// Monte-Carlo test validity (Davison & Hinkley 1997, via docs/science.md §S3.5): under a stationary
 // null p = (1 + #{τ* ≥ τ})/(N + 1) is uniform on {1/(N+1), …, 1}, so with N = 99 the rejection
 // probability at α = 0.05 is 5/100 exactly for exchangeable surrogates and ≈ 0.05 for fitted ones.
 // Over 200 trend-free AR(1) series the count is Binomial(200, 0.05); bounds at 0.1% per side.

@@ -3,8 +3,8 @@ import { ADVISORY_CAUTION } from '../../../shared/alarms/vocabulary'
 import { renderAlarmMail, renderDigestMail, type AlarmMailFacts } from '../../../shared/notifications/alarmMail'
 import { duration, plantTime } from '../../../shared/notifications/format'
 
-// Invented facts: what is checked is that each required element reaches the text (DESIGN.md §6
-// lists them; §1 gives the caution), not any value of the demo plant.
+// Invented facts: what is checked is that each required element reaches the text (docs/design.md §D4
+// item 6 lists them; §D1 gives the caution), not any value of the demo plant.
 const FACTS: AlarmMailFacts = {
   alarmId: 42, priority: 'high', alarmClass: 'alarm', siteName: 'Test Works', timeZone: 'Europe/London',
   unitCode: 'U-1', unitName: 'Test unit', tagCode: 'TI-1', tagDescription: 'Test temperature', engineeringUnit: 'K',
@@ -53,7 +53,7 @@ describe('alarm mail text', () => {
 })
 
 describe('message formats', () => {
-  it('shows plant-local time beside UTC (DESIGN.md §10); Europe/London is UTC+1 in July [common practice]', () => {
+  it('shows plant-local time beside UTC (docs/design.md §D9); Europe/London is UTC+1 in July [common practice]', () => {
     expect(plantTime('2026-07-01T08:00:00.000Z', 'Europe/London')).toBe('2026-07-01 09:00:00 Europe/London (08:00:00 UTC)')
   })
   it('writes durations in words', () => {

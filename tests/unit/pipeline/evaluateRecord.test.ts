@@ -1,7 +1,7 @@
 // The live evaluation of one tag (shared/pipeline/evaluateRecord): when it judges, what steps do
 // to its windows, and that a fold approach is judged "slowing down" with a band that holds the
-// fold while a steady series is not. Check values come from the OU process (SCIENCE.md A2: an
-// OU process sampled at Δ is an AR(1) with φ = e^{−kΔ}) and the fold's square-root law (A1).
+// fold while a steady series is not. Check values come from the OU process (docs/science.md §S2.3: an
+// OU process sampled at Δ is an AR(1) with φ = e^{−kΔ}) and the fold's square-root law (§S1.1).
 import { describe, expect, it } from 'vitest'
 import { createRng } from '#shared/analysis/random'
 import { simulateOu } from '#shared/analysis/simulate'
@@ -54,7 +54,7 @@ describe('steps restart the windows', () => {
 })
 
 describe('a fold approach against a steady series (seeded, many records)', () => {
-  // k(t) = k₀·√(1 − t/t_c): λ² falls linearly to zero at t_c (SCIENCE.md A1). The record stops
+  // k(t) = k₀·√(1 − t/t_c): λ² falls linearly to zero at t_c (docs/science.md §S1.1). The record stops
   // 100 s before the fold. k₀ = 0.5 (φ from 0.61 toward 1).
   const FOLD = 1_300
   const RECORDS = 30

@@ -9,7 +9,7 @@ const at = (change: Partial<typeof URP_BENCHMARK>) => ({ ...URP_BENCHMARK, ...ch
 describe('exothermic CSTR, Uppal, Ray & Poore 1974 benchmark (γ = 20, B = 8, β = 0.3, x2c = 0, Da = 0.072)', () => {
   it('has the three published steady states', () => {
     const states = cstrEquilibria(URP_BENCHMARK)
-    // SCIENCE.md C1: Uppal, Ray & Poore 1974 benchmark, steady states (0.1440, 0.8860),
+    // docs/science.md §S10.1: Uppal, Ray & Poore 1974 benchmark, steady states (0.1440, 0.8860),
     // (0.4472, 2.7517), (0.7646, 4.7050) [C]
     expect(states).toHaveLength(3)
     const published = [[0.1440, 0.8860], [0.4472, 2.7517], [0.7646, 4.7050]]
@@ -24,18 +24,18 @@ describe('exothermic CSTR, Uppal, Ray & Poore 1974 benchmark (γ = 20, B = 8, β
   it('has the published eigenvalues at the cool state, and a saddle in the middle', () => {
     const [cool, middle] = cstrEquilibria(URP_BENCHMARK)
     const { re, im } = eigenvalues2x2(numericalJacobian(cstrDerivative(URP_BENCHMARK), cool!))
-    // SCIENCE.md C1: URP benchmark, cool state eigenvalues −0.8957 and −0.5164 [C]
+    // docs/science.md §S10.1: URP benchmark, cool state eigenvalues −0.8957 and −0.5164 [C]
     expect(im).toBe(0)
     expect(re[0]).toBeCloseTo(-0.8957, 3)
     expect(re[1]).toBeCloseTo(-0.5164, 3)
-    // SCIENCE.md C1: the middle state (0.4472, 2.7517) is a saddle [C]
+    // docs/science.md §S10.1: the middle state (0.4472, 2.7517) is a saddle [C]
     const saddle = eigenvalues2x2(numericalJacobian(cstrDerivative(URP_BENCHMARK), middle!))
     expect(saddle.re[0]).toBeLessThan(0)
     expect(saddle.re[1]).toBeGreaterThan(0)
   })
 
   it.each([
-    // SCIENCE.md C1 fold table [C]: ignition Da* = 0.079886; fouling β* = 0.200917; coolant x2c* = 0.526878
+    // docs/science.md §S10.1 [C]: ignition Da* = 0.079886; fouling β* = 0.200917; coolant x2c* = 0.526878
     ['Da', 0.079886],
     ['beta', 0.200917],
     ['x2c', 0.526878],
@@ -48,7 +48,7 @@ describe('exothermic CSTR, Uppal, Ray & Poore 1974 benchmark (γ = 20, B = 8, β
   })
 
   it('extinction fold in Da is at the published 0.066188', () => {
-    // SCIENCE.md C1 fold table: extinction at Da = 0.066188 [C]
+    // docs/science.md §S10.1: extinction at Da = 0.066188 [C]
     expect(cstrExtinctionDa()).toBeCloseTo(0.066188, 5)
   })
 
@@ -59,7 +59,7 @@ describe('exothermic CSTR, Uppal, Ray & Poore 1974 benchmark (γ = 20, B = 8, β
   })
 
   it.each([
-    // SCIENCE.md C1: slow eigenvalue on the approach to ignition [C]
+    // docs/science.md §S10.1: slow eigenvalue on the approach to ignition [C]
     [0.072, -0.516], [0.076, -0.366], [0.078, -0.257], [0.079, -0.177], [0.0795, -0.118], [0.0798, -0.056],
   ])('slow eigenvalue at Da = %f is the published %f', (Da, published) => {
     const p = at({ Da })
@@ -68,7 +68,7 @@ describe('exothermic CSTR, Uppal, Ray & Poore 1974 benchmark (γ = 20, B = 8, β
   })
 
   it('λ² is about 34–35·(Da* − Da) near ignition', () => {
-    // SCIENCE.md C1: λ² ≈ 34–35·(Da* − Da), linear as the fold normal form (A1) says [C].
+    // docs/science.md §S10.1: λ² ≈ 34–35·(Da* − Da), linear as the fold normal form (§S1.1) says [C].
     // The slope is approximate: here it is 34.4 at Da = 0.076 and creeps to 36.1 at 0.0798,
     // so the check allows 34–36.5.
     const daStar = cstrIgnitionFold('Da').value

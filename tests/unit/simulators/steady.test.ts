@@ -30,11 +30,11 @@ describe('steady loop: Ornstein–Uhlenbeck process integrated by Euler–Maruya
       state = integrate(state, steadyLoopDerivative(loop), [loop.sigma], 0.1, 0.01, normal)
       samples.push(state[0]!)
     }
-    // SCIENCE.md A2: stationary variance σ²/(2k) = 0.09 [C; R: goffda::r_ou documentation]
+    // docs/science.md §S2.3: stationary variance σ²/(2k) = 0.09 [C; R: goffda::r_ou documentation]
     expect(steadyLoopVariance(loop)).toBeCloseTo(0.09, 12)
     // Sampling error of the variance here is ~2% (1 SE); allow 4 SE.
     expect(Math.abs(variance(samples) / 0.09 - 1)).toBeLessThan(0.08)
-    // SCIENCE.md A2: lag-1 autocorrelation φ = e^(−kΔ) = 0.951229 [C]; SE ≈ √((1 − φ²)/n) = 0.001.
+    // docs/science.md §S2.3: lag-1 autocorrelation φ = e^(−kΔ) = 0.951229 [C]; SE ≈ √((1 − φ²)/n) = 0.001.
     expect(lagOneAutocorrelation(samples)).toBeCloseTo(0.951229, 2)
   })
 

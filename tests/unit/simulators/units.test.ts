@@ -41,13 +41,13 @@ describe.each([
       if (progressAtTip === undefined) watched.push(...samples.filter(s => s.tag === watchedTag).map(s => s.value))
     }
     expect(progressAtTip).toBeDefined()
-    // The fold is crossed at progress 1; the jump comes after it (SCIENCE.md A1: slow passage
+    // The fold is crossed at progress 1; the jump comes after it (docs/science.md §S1.3: slow passage
     // through a fold lags it).
     expect(progressAtTip!).toBeGreaterThanOrEqual(1)
     expect(cycle.completedCycles).toBe(1)
     expect(cycle.phase).toBe('approach')
     // Critical slowing down in what the database receives (sensor noise and quantisation
-    // included): lag-1 autocorrelation φ = exp(−2√(r − r_c)·Δt) → 1 at the fold (SCIENCE.md A1).
+    // included): lag-1 autocorrelation φ = exp(−2√(r − r_c)·Δt) → 1 at the fold (docs/science.md §S1.2).
     // First quarter of the approach against the last quarter before the fold.
     const atFold = Math.floor(watched.length / progressAtTip!)
     const quarter = Math.floor(atFold / 4)

@@ -1,5 +1,5 @@
-// NIST StRD univariate data sets (https://www.itl.nist.gov/div898/strd/univ/), as transcribed in
-// SCIENCE.md Appendix (from montanaflynn/stats nist_test.go), with NIST's certified values (SCIENCE.md B2).
+// NIST StRD univariate data sets (https://www.itl.nist.gov/div898/strd/univ/), as transcribed
+// from montanaflynn/stats nist_test.go, with NIST's certified values (docs/science.md §S12).
 // PiDigits is not included: its data file is not available offline (and it is not the true digits of π).
 
 export interface NistDataset { name: string, values: number[], mean: number, sd: number, r1: number }

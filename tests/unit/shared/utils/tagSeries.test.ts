@@ -10,7 +10,7 @@ const settings = chartIndicatorSettings(1)
 const SAMPLES = 6_000
 const grid = { from: 1_000, to: SAMPLES, count: 250 }
 
-// k² falling linearly to zero at t_c is the fold's signature (DESIGN.md §1, SCIENCE.md A1).
+// k² falling linearly to zero at t_c is the fold's signature (docs/design.md §D1, docs/science.md §S1.1).
 const FOLD_TIME = 7_000
 const approachingFold = simulateOu({ samples: SAMPLES, dt: 1, k: t => 0.5 * Math.sqrt(1 - t / FOLD_TIME), sigma: 0.2 }, createRng(7))
 const steady = simulateOu({ samples: SAMPLES, dt: 1, k: 0.5, sigma: 0.2 }, createRng(8))

@@ -13,7 +13,7 @@ describe('alignOnGrid', () => {
 
 describe('buildUnitSlowMode', () => {
   // Two independent OU tags: the slower one (k = 0.02/s) must carry the slow mode and set the
-  // unit's slowest recovery rate (SCIENCE.md A4: the leading eigenvalue of a diagonal A is the
+  // unit's slowest recovery rate (docs/science.md §S5: the leading eigenvalue of a diagonal A is the
   // slower tag's e^{−kΔ}).
   const slow = simulateOu({ samples: 3_600, dt: 2, k: 0.02, sigma: 1 }, createRng(3))
   const fast = simulateOu({ samples: 3_600, dt: 2, k: 0.3, sigma: 1 }, createRng(4))
