@@ -70,6 +70,10 @@ export interface EvaluationDelays {
  * The week-long streams set the per-look α: at 0.01 most null tag-weeks raised a false alert. On
  * the demo's steady unit (scripts/bench/detection.ts steadyUnitNulls, seeds 1–12, 24 tag-weeks at
  * 60 s) α 0.002 raised 5 false alerts and α 0.001 raised 1 (0.04 per tag-week).
+ * While the trend window still grows, looks are nested and the look's α is 5 × 0.001
+ * (evaluateRecord EXPANDING_ALPHA_FACTOR): short records then alert on the harvesting fold in
+ * 33/150 (11/150 without the factor), every short null ≤ 6/150 (white noise; AR(1) φ 0.9 5/150),
+ * week-long AR(1) φ 0.9 streams 1/12, the steady unit still 1 in 24 tag-weeks.
  * Detection power on short records is the open problem: records that stop far from the fold are
  * missed (scripts/bench/earlyWarning.ts lists them). The off-delay keeps a raised alert through a
  * few weaker evaluations.
