@@ -38,6 +38,8 @@ export interface EvaluationPoint {
 
 /** The quality note of an evaluation inside the warm-up after a detected step. */
 export const SETTLING = 'settling after a step'
+/** The quality note's start inside the warm-up after the first sample loaded. */
+export const WARMING_UP = 'warming up'
 
 export type PipelineStage = 'detrend' | 'quality and indicators' | 'trend tests' | 'fold horizon'
 /** Measures a synchronous stage; the engine's stages are PipelineStage, callers may add their own. */
@@ -83,7 +85,7 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, usableFrom: Int
   const empty = emptyPoint(times[end]!)
   const usable = usableFrom[end]!
   if (end < usable) {
-    return { ...empty, quality: usableFrom[0] !== usable ? SETTLING : `warming up: ${end + 1} samples` }
+    return { ...empty, quality: usableFrom[0] !== usable ? SETTLING : `${WARMING_UP}: ${end + 1} samples` }
   }
   const start = Math.max(end + 1 - settings.windowSamples, usable)
   const w = end + 1 - start

@@ -2,7 +2,7 @@
 // open alarms. Data problems come first: a tag with no data or bad data shows that, never
 // "steady", and its indicators are not trusted.
 import type { AlarmClass, AlarmState, TagStatus } from '../alarms/vocabulary'
-import { SETTLING, type EvaluationPoint } from './evaluateRecord'
+import { SETTLING, WARMING_UP, type EvaluationPoint } from './evaluateRecord'
 import { duration, number } from '../notifications/format'
 
 /** Samples stopping for this many sample periods means "no data". */
@@ -28,6 +28,8 @@ export function deriveTagStatus(input: StatusInput): { status: TagStatus, reason
   const p = input.latest
   // After a trip, reset or setpoint change the windows restart; that is not a data fault.
   if (p?.quality === SETTLING) return { status: 'watch', reason: 'settling after a step: windows restarted' }
+  // The detrender's warm-up is not a data fault either: the tag is simply not judged yet.
+  if (p?.quality?.startsWith(WARMING_UP)) return { status: 'steady', reason: `analysis pending (${p.quality})` }
   if (p?.quality) return { status: 'bad quality', reason: p.quality }
   const annunciated = input.openAlarms.filter(a => a.state === 'unacknowledged' || a.state === 'acknowledged')
   const alarm = annunciated.find(a => a.alarmClass === 'alarm')

@@ -1,0 +1,27 @@
+// A tile's status from the latest evaluation: the detrender's warm-up and the restart after a step
+// are not data faults, so they never read "bad quality" (docs/design.md tile states).
+import { describe, expect, it } from 'vitest'
+import { evaluateRecord, SETTLING } from '#shared/pipeline/evaluateRecord'
+import { defaultIndicatorSettings } from '#shared/pipeline/indicatorDefaults'
+import { deriveTagStatus } from '#shared/pipeline/tagStatus'
+
+const settings = defaultIndicatorSettings(1)
+const times = Float64Array.from({ length: 40 }, (_, i) => i)
+const values = Float64Array.from(times, t => Math.sin(t))
+const warming = evaluateRecord({ tagId: 1, times, values, firstNew: 39, samplesSinceEvaluation: settings.evaluateEvery - 1, samplePeriodS: 1, settings }).points[0]!
+const status = (latest: typeof warming) => deriveTagStatus({ now: 40, latestTime: 39, samplePeriodS: 1, latest, openAlarms: [] })
+
+describe('tile status of a tag that is not judged yet', () => {
+  it('warming up: steady with "analysis pending", not bad quality', () => {
+    expect(warming.quality).toMatch(/^warming up/)
+    expect(status(warming)).toEqual({ status: 'steady', reason: `analysis pending (${warming.quality})` })
+  })
+
+  it('settling after a step: watch', () => {
+    expect(status({ ...warming, quality: SETTLING }).status).toBe('watch')
+  })
+
+  it('a real data fault stays bad quality', () => {
+    expect(status({ ...warming, quality: 'stuck: all 40 values equal 1' }).status).toBe('bad quality')
+  })
+})
