@@ -87,6 +87,7 @@ export async function raiseAlarm(tx: DbTransaction, rule: AlarmRuleRow, input: {
     ruleId: rule.id, siteId: rule.siteId, unitId: rule.unitId, tagId: rule.tagId,
     priority: rule.priority, alarmClass: rule.alarmClass, measure: rule.measure, comparison: rule.comparison,
     threshold: rule.threshold, state: 'normal', conditionActive: false, raisedAt: input.time, raisedValue: input.value,
+    activatedAt: input.time, activatedValue: input.value,
     context: input.context,
   }).returning()
   let alarm = row!

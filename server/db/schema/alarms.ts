@@ -75,6 +75,15 @@ export const alarms = pgTable('alarms', {
   conditionActive: boolean('condition_active').notNull(),
   raisedAt: timestamp('raised_at', { withTimezone: true }).notNull(),
   raisedValue: doublePrecision('raised_value'),
+  /**
+   * The latest activation of this occurrence (the first one until it re-activates from
+   * returned-to-normal-unacknowledged or from a set-aside state): lists sort by it and mail
+   * states it, so a re-raised alarm reads as new, not hours old.
+   */
+  activatedAt: timestamp('activated_at', { withTimezone: true }).notNull(),
+  activatedValue: doublePrecision('activated_value'),
+  /** Activations in this occurrence, the first included. */
+  activationCount: integer('activation_count').notNull().default(1),
   ackedAt: timestamp('acked_at', { withTimezone: true }),
   ackedBy: integer('acked_by').references(() => users.id, { onDelete: 'set null' }),
   clearedAt: timestamp('cleared_at', { withTimezone: true }),
@@ -83,13 +92,14 @@ export const alarms = pgTable('alarms', {
   shelveReason: text('shelve_reason'),
   lastValue: doublePrecision('last_value'),
   lastValueAt: timestamp('last_value_at', { withTimezone: true }),
-  /** Trend and fold horizon behind the activation, for the message. */
+  /** Trend and fold horizon behind the latest activation, for the message. */
   context: jsonb('context').$type<Record<string, unknown>>().notNull().default({}),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 }, t => [
   uniqueIndex('alarms_one_open_per_rule').on(t.ruleId).where(sql`${t.state} <> 'normal'`),
   index('alarms_open').on(t.state).where(sql`${t.state} <> 'normal'`),
   index('alarms_site_raised').on(t.siteId, t.raisedAt),
+  index('alarms_site_activated').on(t.siteId, t.activatedAt),
   index('alarms_shelved_until').on(t.shelvedUntil).where(sql`${t.state} = 'shelved'`),
   check('alarms_state', oneOf(t.state, ALARM_STATES)),
 ])
@@ -109,6 +119,8 @@ export const alarmEvents = pgTable('alarm_events', {
   userId: integer('user_id').references(() => users.id, { onDelete: 'set null' }),
   comment: text('comment').notNull().default(''),
   value: doublePrecision('value'),
+  /** On an activation: the trend and fold facts at that moment (each re-activation keeps its own). */
+  context: jsonb('context').$type<Record<string, unknown>>(),
   /** A client's request id, so a retried acknowledgement is recognised, not repeated. */
   requestId: text('request_id'),
 }, t => [

@@ -21,11 +21,15 @@ export const notificationRoutes = pgTable('notification_routes', {
   check('notification_routes_priority', oneOf(t.minPriority, PRIORITIES)),
 ])
 
+/** A mail per alarm, a flood digest, or one summary of alarms raised from old history (docs/design.md §D4). */
+export const OUTBOX_KINDS = ['alarm', 'digest', 'history_summary'] as const
+export type OutboxKind = typeof OUTBOX_KINDS[number]
+
 // Mail to send, written in the same transaction as the alarm change that causes it. The sender
 // claims rows FOR UPDATE SKIP LOCKED; delivery is at least once (see server/utils/mailSender.ts).
 export const notificationOutbox = pgTable('notification_outbox', {
   id: bigserial('id', { mode: 'number' }).primaryKey(),
-  kind: text('kind').notNull(),
+  kind: text('kind').$type<OutboxKind>().notNull(),
   siteId: integer('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
   /** The alarm of a single message; a digest lists its alarms in alarm_ids. */
   alarmId: bigint('alarm_id', { mode: 'number' }),
@@ -41,11 +45,13 @@ export const notificationOutbox = pgTable('notification_outbox', {
   sentAt: timestamp('sent_at', { withTimezone: true }),
   lastError: text('last_error'),
 }, t => [
-  check('notification_outbox_kind', oneOf(t.kind, ['alarm', 'digest'])),
+  check('notification_outbox_kind', oneOf(t.kind, OUTBOX_KINDS)),
   check('notification_outbox_status', oneOf(t.status, ['pending', 'sent', 'failed'])),
   index('notification_outbox_due').on(t.nextAttemptAt).where(sql`${t.status} = 'pending'`),
   // One digest collects per site at a time.
   uniqueIndex('notification_outbox_open_digest').on(t.siteId).where(sql`${t.kind} = 'digest' and ${t.status} = 'pending'`),
+  // And one summary of alarms raised from old (back-filled or uploaded) history.
+  uniqueIndex('notification_outbox_open_history_summary').on(t.siteId).where(sql`${t.kind} = 'history_summary' and ${t.status} = 'pending'`),
 ])
 
 export const outboxAttempts = pgTable('outbox_attempts', {
