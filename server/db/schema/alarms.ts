@@ -26,6 +26,8 @@ export const alarmRules = pgTable('alarm_rules', {
   consequence: text('consequence').notNull(),
   likelyCause: text('likely_cause').notNull(),
   operatorAction: text('operator_action').notNull(),
+  /** ISA-18.2 rationalization: the time the operator has to act (null on rules written before it was asked). */
+  timeToRespondS: doublePrecision('time_to_respond_s'),
   mode: text('mode').$type<RuleMode>().notNull().default('in_service'),
   enabled: boolean('enabled').notNull().default(true),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
@@ -43,6 +45,7 @@ export const alarmRules = pgTable('alarm_rules', {
   check('alarm_rules_class', oneOf(t.alarmClass, ALARM_CLASSES)),
   check('alarm_rules_mode', oneOf(t.mode, RULE_MODES)),
   check('alarm_rules_delays', sql`${t.onDelayS} >= 0 and ${t.offDelayS} >= 0 and ${t.deadband} >= 0`),
+  check('alarm_rules_time_to_respond', sql`${t.timeToRespondS} is null or ${t.timeToRespondS} > 0`),
   check('alarm_rules_rationale', sql`length(${t.consequence}) > 0 and length(${t.likelyCause}) > 0 and length(${t.operatorAction}) > 0`),
 ])
 

@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm'
-import { pgTable, integer, doublePrecision, timestamp, text, primaryKey, jsonb, check } from 'drizzle-orm/pg-core'
+import { pgTable, serial, integer, doublePrecision, timestamp, text, primaryKey, jsonb, check, index, type AnyPgColumn } from 'drizzle-orm/pg-core'
+import type { IndicatorSettings } from '../../../shared/pipeline/indicatorDefaults'
 import { TAG_STATUSES } from '../../../shared/alarms/vocabulary'
 import { oneOf } from './checks'
 import { tags, units } from './plant'
@@ -19,9 +20,23 @@ export const indicatorSettings = pgTable('indicator_settings', {
   minTrendSamples: integer('min_trend_samples').notNull().default(200),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   updatedBy: integer('updated_by').references(() => users.id, { onDelete: 'set null' }),
+  /** The version these values are (null: the pipeline's starting values, never edited). */
+  versionId: integer('version_id').references((): AnyPgColumn => indicatorSettingsVersions.id, { onDelete: 'no action' }),
 }, t => [
   check('indicator_settings_sizes', sql`${t.windowSamples} >= 20 and ${t.trendWindowSamples} > ${t.windowSamples} and ${t.minTrendSamples} >= 30 and ${t.minTrendSamples} <= ${t.trendWindowSamples} and ${t.indicatorStep} >= 1 and ${t.evaluateEvery} >= 1 and ${t.surrogates} >= 19`),
 ])
+
+// Every set of indicator settings a tag has had, oldest first; indicator points name the version
+// that produced them, so a chart can say which settings it shows. Rows are never changed.
+export const indicatorSettingsVersions = pgTable('indicator_settings_versions', {
+  id: serial('id').primaryKey(),
+  tagId: integer('tag_id').notNull().references(() => tags.id, { onDelete: 'cascade' }),
+  settings: jsonb('settings').$type<IndicatorSettings>().notNull(),
+  /** Why the engineer changed them (free text, may be empty for the recorded starting values). */
+  reason: text('reason').notNull().default(''),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  createdBy: integer('created_by').references(() => users.id, { onDelete: 'set null' }),
+}, t => [index('indicator_settings_versions_tag').on(t.tagId, t.id)])
 
 // The claim row of the scheduled pipeline: workers lock it FOR UPDATE SKIP LOCKED, so several
 // server instances share the tags; it moves forward in the same transaction as the results.
@@ -58,6 +73,8 @@ export const indicatorPoints = pgTable('indicator_points', {
   foldSeconds: doublePrecision('fold_seconds'),
   foldLowSeconds: doublePrecision('fold_low_seconds'),
   foldHighSeconds: doublePrecision('fold_high_seconds'),
+  /** The settings version that produced the point (null: starting values, or before versioning). */
+  settingsVersionId: integer('settings_version_id').references(() => indicatorSettingsVersions.id, { onDelete: 'no action' }),
 }, t => [primaryKey({ columns: [t.tagId, t.time] })])
 
 // What the overview shows per tag, kept current by the pipeline.

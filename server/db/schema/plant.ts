@@ -1,4 +1,7 @@
-import { pgTable, serial, text, integer, doublePrecision, timestamp, unique, boolean } from 'drizzle-orm/pg-core'
+import { sql } from 'drizzle-orm'
+import { pgTable, serial, text, integer, doublePrecision, timestamp, unique, boolean, check, type AnyPgColumn } from 'drizzle-orm/pg-core'
+import { LOOP_ROLES, type LoopRole } from '../../../shared/plant/vocabulary'
+import { oneOf } from './checks'
 
 export const sites = pgTable('sites', {
   id: serial('id').primaryKey(),
@@ -8,6 +11,8 @@ export const sites = pgTable('sites', {
   // IANA zone: times are stored in UTC and shown in the plant's local time.
   timeZone: text('time_zone').notNull().default('UTC'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  // Retired rows stay with their history and can be restored; nothing in the plant model is deleted.
+  retiredAt: timestamp('retired_at', { withTimezone: true }),
 })
 
 export const units = pgTable('units', {
@@ -17,6 +22,7 @@ export const units = pgTable('units', {
   name: text('name').notNull(),
   kind: text('kind').notNull(),
   description: text('description').notNull().default(''),
+  retiredAt: timestamp('retired_at', { withTimezone: true }),
 }, t => [unique('units_site_code').on(t.siteId, t.code)])
 
 export const tags = pgTable('tags', {
@@ -31,5 +37,17 @@ export const tags = pgTable('tags', {
   rangeLow: doublePrecision('range_low').notNull(),
   rangeHigh: doublePrecision('range_high').notNull(),
   noiseFloor: doublePrecision('noise_floor').notNull().default(0),
+  /** Smallest change the source reports (0: not quantised). */
+  quantisationStep: doublePrecision('quantisation_step').notNull().default(0),
   watched: boolean('watched').notNull().default(true),
-}, t => [unique('tags_site_code').on(t.siteId, t.code)])
+  /** Set when retired: the pipeline stops watching the tag; samples, points and alarms stay. */
+  retiredAt: timestamp('retired_at', { withTimezone: true }),
+  /** The tag whose control loop this one belongs to, and as what (controller output or setpoint). */
+  loopTagId: integer('loop_tag_id').references((): AnyPgColumn => tags.id, { onDelete: 'set null' }),
+  loopRole: text('loop_role').$type<LoopRole>(),
+}, t => [
+  unique('tags_site_code').on(t.siteId, t.code),
+  check('tags_loop_role', oneOf(t.loopRole, LOOP_ROLES)),
+  check('tags_loop_link', sql`(${t.loopTagId} is null) = (${t.loopRole} is null) and ${t.loopTagId} <> ${t.id}`),
+  check('tags_range', sql`${t.rangeLow} < ${t.rangeHigh} and ${t.samplePeriodS} > 0 and ${t.noiseFloor} >= 0 and ${t.quantisationStep} >= 0`),
+])
