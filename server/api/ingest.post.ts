@@ -1,5 +1,5 @@
 import { ingestBatchSchema, MAX_BATCH_SAMPLES, MAX_INGEST_BYTES } from '#shared/schemas/ingest'
-import { validateSamples } from '#shared/utils/sampleBatch'
+import { ingestBatch } from '../services/ingest/ingestBatch'
 
 export default defineEventHandler(async (event) => {
   const gateway = await requireGateway(event)
@@ -9,11 +9,11 @@ export default defineEventHandler(async (event) => {
     if (declared > MAX_INGEST_BYTES) tooLarge(`body of ${declared} bytes exceeds the limit of ${MAX_INGEST_BYTES}`)
     const { samples: items } = await validBody(event, ingestBatchSchema)
     if (items.length > MAX_BATCH_SAMPLES) tooLarge(`batch of ${items.length} samples exceeds the limit of ${MAX_BATCH_SAMPLES}; split it`)
-    const codes = [...new Set(items.flatMap(i => (typeof (i as { tag?: unknown })?.tag === 'string' ? [((i as { tag: string }).tag).trim()] : [])))]
-    const tagIds = await tagIdsByCode(db, gateway.siteId, codes)
-    const { valid, rejected } = validateSamples(items, code => tagIds.has(code))
-    const stored = await storeSamples(db, { gatewayId: gateway.id, samples: valid, tagIds, rejected: rejected.length })
-    return { ...stored, rejected }
+    return await ingestBatch(db, {
+      siteId: gateway.siteId,
+      items,
+      countAgainstSource: (tx, counts) => countGatewayBatch(tx, gateway.id, counts),
+    })
   }
   catch (err) {
     const status = (err as { statusCode?: number }).statusCode

@@ -1,4 +1,5 @@
 import { createHash, randomBytes } from 'node:crypto'
+import type { TransactionSql } from 'postgres'
 import { and, asc, eq, isNull, sql } from 'drizzle-orm'
 import { gateways, sites } from '../db/schema'
 
@@ -45,4 +46,12 @@ export async function recordFailedBatch(db: Db, gatewayId: number, message: stri
   await db.update(gateways).set({
     lastContactAt: new Date(), failedBatchCount: sql`${gateways.failedBatchCount} + 1`, lastError: message.slice(0, 500),
   }).where(eq(gateways.id, gatewayId))
+}
+
+/** Adds one stored batch to the gateway's counters, inside the batch's own transaction. */
+export async function countGatewayBatch(tx: TransactionSql, gatewayId: number, counts: { accepted: number, duplicates: number, rejected: number }) {
+  await tx`
+    update gateways set last_contact_at = now(), accepted_count = accepted_count + ${counts.accepted},
+      duplicate_count = duplicate_count + ${counts.duplicates}, rejected_count = rejected_count + ${counts.rejected}
+    where id = ${gatewayId}`
 }

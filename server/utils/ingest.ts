@@ -18,7 +18,7 @@ export async function tagIdsByCode(db: Db, siteId: number, codes: string[]): Pro
  * ON CONFLICT DO NOTHING on the (tag_id, time) key makes a retried batch harmless. Returns how
  * many rows were new. Runs inside the caller's transaction.
  */
-async function insertSamples(tx: TransactionSql, samples: ValidSample[], tagIdOf: Map<string, number>): Promise<number> {
+export async function insertSamples(tx: TransactionSql, samples: ValidSample[], tagIdOf: Map<string, number>): Promise<number> {
   if (samples.length === 0) return 0
   const tagIds = new Int32Array(samples.length)
   const times: string[] = new Array(samples.length)
@@ -36,24 +36,6 @@ async function insertSamples(tx: TransactionSql, samples: ValidSample[], tagIdOf
       ${arrayLiteral(values)}::float8[], ${arrayLiteral(qualities)}::int2[])
     on conflict do nothing`
   return inserted.count
-}
-
-/** Stores a gateway's validated batch and the gateway's counters in one transaction: all or nothing. */
-export async function storeSamples(db: Db, input: {
-  gatewayId: number
-  samples: ValidSample[]
-  tagIds: Map<string, number>
-  rejected: number
-}): Promise<{ accepted: number, duplicates: number }> {
-  return db.$sql.begin(async (tx) => {
-    const accepted = await insertSamples(tx, input.samples, input.tagIds)
-    const duplicates = input.samples.length - accepted
-    await tx`
-      update gateways set last_contact_at = now(), accepted_count = accepted_count + ${accepted},
-        duplicate_count = duplicate_count + ${duplicates}, rejected_count = rejected_count + ${input.rejected}
-      where id = ${input.gatewayId}`
-    return { accepted, duplicates }
-  })
 }
 
 /**

@@ -10,6 +10,11 @@ const ISO_WITH_OFFSET = /^\d{4}-\d{2}-\d{2}[T ]\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(
 // Plausibility bounds for epoch milliseconds: 2000-01-01 … 2100-01-01 catches seconds-vs-ms mix-ups.
 const EPOCH_MS_MIN = Date.UTC(2000, 0, 1)
 const EPOCH_MS_MAX = Date.UTC(2100, 0, 1)
+/**
+ * How far ahead of the receiving clock a live sample may be stamped. A source whose clock runs
+ * minutes fast would otherwise write "future" rows that every later, correct sample sorts before.
+ */
+export const MAX_FUTURE_SKEW_MS = 5 * 60_000
 
 function parseTime(raw: unknown): number | string {
   if (typeof raw === 'number') {
@@ -32,9 +37,10 @@ function parseQuality(raw: unknown): number | string {
 
 /**
  * Checks each sample of a batch on its own, so one bad reading never costs the good ones.
- * `knownTag` says whether a tag code exists for the sender's site.
+ * `knownTag` says whether a tag code exists for the sender's site. With `nowMs` (live data), a
+ * time more than MAX_FUTURE_SKEW_MS ahead of it is refused as clock skew.
  */
-export function validateSamples(items: readonly unknown[], knownTag: (code: string) => boolean) {
+export function validateSamples(items: readonly unknown[], knownTag: (code: string) => boolean, options: { nowMs?: number } = {}) {
   const valid: ValidSample[] = []
   const rejected: RejectedSample[] = []
   items.forEach((item, index) => {
@@ -45,6 +51,8 @@ export function validateSamples(items: readonly unknown[], knownTag: (code: stri
     if (!knownTag(tag.trim())) return reject('tag', `unknown tag code ${JSON.stringify(tag.trim())} for this gateway's site`)
     const timeMs = parseTime(time)
     if (typeof timeMs === 'string') return reject('time', timeMs)
+    if (options.nowMs !== undefined && timeMs > options.nowMs + MAX_FUTURE_SKEW_MS)
+      return reject('time', `is ${Math.round((timeMs - options.nowMs) / 60_000)} min ahead of the receiving clock (more than ${MAX_FUTURE_SKEW_MS / 60_000} min): the source's clock is fast`)
     if (typeof value !== 'number' || !Number.isFinite(value)) return reject('value', 'must be a finite number')
     const q = parseQuality(quality)
     if (typeof q === 'string') return reject('quality', q)

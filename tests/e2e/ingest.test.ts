@@ -89,6 +89,19 @@ describe('POST /api/ingest', () => {
     expect(JSON.stringify(list.body)).not.toContain(gw.key)
   })
 
+  it('refuses a sample stamped an hour ahead of the server clock and counts it as rejected', async () => {
+    const gw = await createTestGateway('fast-clock-gateway')
+    const ahead = Date.now() + 3_600_000
+    const res = await ingest(gw.key, { samples: [{ tag: 'TI-401', time: ahead, value: 1 }] })
+    expect(res.status).toBe(200)
+    expect(res.body.accepted).toBe(0)
+    expect(res.body.rejected[0]).toMatchObject({ index: 0, field: 'time' })
+    expect(res.body.rejected[0].reason).toMatch(/ahead of the receiving clock/)
+    expect(await countFor('TI-401', ahead, ahead)).toBe(0)
+    const list = await call('/api/admin/gateways', { cookie: gw.adminCookie })
+    expect(list.body.find((g: { id: number }) => g.id === gw.id)).toMatchObject({ rejectedCount: 1, acceptedCount: 0 })
+  })
+
   it('gives a gateway name conflict a 409 and a bad site a 400 naming the field', async () => {
     const gw = await createTestGateway('unique-gateway')
     const sites = await call('/api/sites', { cookie: gw.adminCookie })
