@@ -59,7 +59,8 @@ export async function sendDueMail(db: Db, transport: MailTransport, options: { f
 }
 
 async function renderDigest(tx: DbTransaction, row: typeof notificationOutbox.$inferSelect, publicUrl: string) {
-  const [site] = await tx.select({ name: sites.name }).from(sites).where(eq(sites.id, row.siteId))
+  // A digest always collects one site's alarms (only account mail has no site).
+  const [site] = await tx.select({ name: sites.name }).from(sites).where(eq(sites.id, row.siteId!))
   const facts = await loadAlarmMailFacts(tx, row.alarmIds, publicUrl)
   return renderDigestMail({ siteName: site?.name ?? `site ${row.siteId}`, alarms: facts, listLink: `${publicUrl.replace(/\/$/, '')}/alarms` })
 }

@@ -9,7 +9,7 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 429, message: `Too many failed sign-ins; try again in ${SIGN_IN_LIMITS.windowMinutes} minutes` })
   }
   const user = await findActiveUserByEmail(db, email)
-  if (!user || !(await verifyPassword(user.passwordHash, password))) {
+  if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, password))) {
     await recordSignInFailure(db, email, address)
     await writeAudit(db, { userId: user?.id ?? null, action: 'sign-in.failed', target: email, address })
     // Same answer for unknown account and wrong password: don't reveal which accounts exist.
