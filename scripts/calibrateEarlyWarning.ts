@@ -1,91 +1,124 @@
-// Whole-procedure calibration of the live slowing-down alert (docs/science.md §S8.1): seeded
-// 500-sample records through shared/pipeline/evaluateRecord with the default settings, then the
-// slowing-down rule's on-/off-delay, exactly as the scheduled task replays them. Counts the records
-// that raised at least one alert, per kind. Environment overrides (ALPHA, ON, EVERY, BW, MIN,
-// SEEDS, N) let a candidate setting be compared on the same seeds.
-//   npx tsx scripts/calibrateEarlyWarning.ts
-//
-// Harvesting fold: May 1977 (Nature 269:471) grazing model dx = [x(1 − x) − h·x²/(s² + x²)]dt
-// + σdW with s = 0.1, as simulated by Bury et al. 2021 (PNAS 118:e2106140118) [parameters from
-// memory]; h ramps from 0.15 to the fold h_c = 0.260437 (found numerically here), the record
-// stopping a uniform 0–150 time units before it; σ = 0.01, one sample per time unit.
-import { createRng, type Rng } from '../shared/analysis/random'
+// Whole-procedure calibration of the live slowing-down alert (docs/science.md §S8.1). Every record
+// goes once through shared/pipeline/evaluateRecord with the default settings; each look's
+// stability-trend p and its sign conditions are kept, and the alert rule is then replayed for a
+// grid of candidate decisions (α while the trend window grows, the false-alert budget once it
+// slides, the on-delay) on the same looks. The records are the detection study's simulations
+// (scripts/bench/detectionStudy/recordSets.ts) drawn from seed indices the benchmark never
+// scores, so what is tuned here is measured there on fresh seeds.
+//   npx tsx scripts/calibrateEarlyWarning.ts    (SHORT=150 LONG=8 records per set; GRID=α:budget:onDelay,…)
+import { existsSync, readFileSync, writeFileSync } from 'node:fs'
+import { INACTIVE, stepCondition } from '../shared/alarms/conditionTracker'
 import { evaluateRecord } from '../shared/pipeline/evaluateRecord'
-import { defaultIndicatorSettings, EARLY_WARNING_DELAYS, evaluationIntervalS } from '../shared/pipeline/indicatorDefaults'
-import { ruleActivations } from '../shared/pipeline/ruleReplay'
+import { defaultIndicatorSettings, EARLY_WARNING_DELAYS, slidingLookAlpha } from '../shared/pipeline/indicatorDefaults'
+import { studyRecords, type StudyRecord } from './bench/detectionStudy/recordSets'
+import { wilson } from './bench/detectionStudy/stats'
 
-const env = (name: string) => (process.env[name] === undefined ? undefined : Number(process.env[name]))
-const N = env('N') ?? 500
-const SEEDS = env('SEEDS') ?? 60
-const ON_DELAY = env('ON') ?? EARLY_WARNING_DELAYS.onDelayEvaluations
-const OFF_DELAY = EARLY_WARNING_DELAYS.offDelayEvaluations
-const defaults = defaultIndicatorSettings(1)
-const settings = {
-  ...defaults,
-  alpha: env('ALPHA') ?? defaults.alpha,
-  evaluateEvery: env('EVERY') ?? defaults.evaluateEvery,
-  detrendBandwidthS: env('BW') ?? defaults.detrendBandwidthS,
-  minTrendSamples: env('MIN') ?? defaults.minTrendSamples,
-  surrogates: env('SURROGATES') ?? defaults.surrogates,
+const env = (name: string, fallback: number) => (process.env[name] === undefined ? fallback : Number(process.env[name]))
+const SHORT = env('SHORT', 150)
+const LONG = env('LONG', 8)
+/** The benchmark scores indices 0–99 of every set; calibration starts well past them. */
+const FIRST_INDEX = 1_000
+const DAY_S = 86_400
+
+interface Look {
+  time: number
+  /** Usable samples in the trend window. */
+  trendSamples: number
+  p: number
+  /** φ rising and variance not falling: the look says slowing down once p ≤ its α. */
+  risingTogether: boolean
 }
-const ONLY = process.env.ONLY
 
-const HARVEST_FOLD = 0.260437
-function harvest(rng: Rng, forced: boolean): Float64Array {
-  const h0 = 0.15, sigma = 0.01, dt = 0.01, stepsPerSample = 100
-  const stop = rng.uniform() * 150
-  const rate = forced ? (HARVEST_FOLD - h0) / (N + stop) : 0
-  const drift = (x: number, h: number) => x * (1 - x) - h * x * x / (0.01 + x * x)
-  let x = 0.8
-  for (let k = 0; k < 20_000; k++) x += dt * drift(x, h0)
-  const out = new Float64Array(N)
-  let t = 0
-  for (let i = 0; i < N; i++) {
-    for (let k = 0; k < stepsPerSample; k++) {
-      x += dt * drift(x, h0 + rate * t) + sigma * Math.sqrt(dt) * rng.normal()
-      t += dt
-    }
-    out[i] = x
+interface Candidate {
+  expandingAlpha: number
+  /** False slowing-down alerts per tag-day the sliding phase may spend (slidingLookAlpha). */
+  budgetPerTagDay: number
+  onDelay: number
+}
+
+const settings = { ...defaultIndicatorSettings(1), alpha: 1 }
+
+function looksOf(record: StudyRecord): Look[] {
+  const { times, values } = record.series
+  const { points } = evaluateRecord({ tagId: record.id, times, values, firstNew: 0, samplesSinceEvaluation: 0, samplePeriodS: 1, settings })
+  // These records hold no step, so the usable data start one detrend bandwidth after the first sample.
+  const usableFrom = times[0]! + settings.detrendBandwidthS
+  return points.filter(pt => pt.pAr1 !== null).map(pt => ({
+    time: pt.time,
+    trendSamples: Math.min(pt.time - usableFrom + 1, settings.trendWindowSamples),
+    p: pt.pAr1!,
+    risingTogether: pt.evidence === 'slowing down',
+  }))
+}
+
+/** Raises of the rule over one record's looks, with the live rule's condition tracker. */
+function raises(looks: readonly Look[], candidate: Candidate): number[] {
+  const interval = settings.evaluateEvery
+  const condition = {
+    comparison: 'above' as const, threshold: 0.5, deadband: 0,
+    onDelayS: candidate.onDelay * interval, offDelayS: EARLY_WARNING_DELAYS.offDelayEvaluations * interval,
   }
-  return out
-}
-
-function ar1(rng: Rng, phi: number, options: { mean?: (i: number) => number, sd?: (i: number) => number, white?: number } = {}): Float64Array {
-  const out = new Float64Array(N)
-  let x = rng.normal() / Math.sqrt(1 - phi * phi)
-  for (let i = 0; i < N; i++) {
-    x = phi * x + (options.sd?.(i) ?? 1) * rng.normal()
-    out[i] = x + (options.mean?.(i) ?? 0) + (options.white ?? 0) * rng.normal()
+  const slidingAlpha = slidingLookAlpha({ ...settings, alpha: 1 }, 1, candidate.budgetPerTagDay)
+  let state = INACTIVE
+  const times: number[] = []
+  for (const look of looks) {
+    const alpha = look.trendSamples < settings.trendWindowSamples ? candidate.expandingAlpha : slidingAlpha
+    const step = stepCondition(condition, state, look.time, look.risingTogether && look.p <= alpha ? 1 : 0)
+    state = step.state
+    if (step.change === 'activate') times.push(look.time)
   }
-  return out
+  return times
 }
 
-const KINDS: Record<string, (rng: Rng) => Float64Array> = {
-  'harvesting fold (forced)': r => harvest(r, true),
-  'harvesting, fixed h': r => harvest(r, false),
-  'AR(1) φ 0.3': r => ar1(r, 0.3),
-  'AR(1) φ 0.6': r => ar1(r, 0.6),
-  'AR(1) φ 0.9': r => ar1(r, 0.9),
-  'noise step ×2': r => ar1(r, 0.6, { sd: i => (i < N / 2 ? 1 : 2) }),
-  'linear drift': r => ar1(r, 0.6, { mean: i => 5 * i / N }),
-  'accelerating drift': r => ar1(r, 0.6, { mean: i => 10 * (i / N) ** 3 }),
-  'slow sine drift': r => ar1(r, 0.6, { mean: i => 3 * Math.sin(2 * Math.PI * i / N) }),
-  'added white noise': r => ar1(r, 0.6, { white: 1 }),
+interface Group {
+  name: string
+  forced: boolean
+  length: 'short' | 'long'
+  looks: Look[][]
+  samples: number
 }
 
-function alerts(values: Float64Array, tagId: number): number {
-  const times = Float64Array.from(values, (_, i) => i)
-  const { points } = evaluateRecord({ tagId, times, values, firstNew: 0, samplesSinceEvaluation: 0, samplePeriodS: 1, settings })
-  const interval = evaluationIntervalS(settings, 1)
-  return ruleActivations(points, 'early_warning', {
-    comparison: 'above', threshold: 0.5, deadband: 0, onDelayS: ON_DELAY * interval, offDelayS: OFF_DELAY * interval,
-  }).length
+function collect(): Group[] {
+  const groups = new Map<string, Group>()
+  const started = Date.now()
+  let done = 0
+  const counts = {
+    forcedShort: SHORT, modelNullShort: SHORT, nullShort: SHORT, forcedLong: LONG, modelNullLong: LONG, nullLong: LONG,
+    longNullKinds: 'all' as const,
+  }
+  for (const record of studyRecords(counts, FIRST_INDEX)) {
+    const key = `${record.group}|${record.forced}|${record.length}`
+    const group = groups.get(key) ?? { name: record.group, forced: record.forced, length: record.length, looks: [], samples: 0 }
+    groups.set(key, group)
+    group.looks.push(looksOf(record))
+    group.samples += record.samples
+    if (++done % 200 === 0) process.stderr.write(`  ${done} records, ${((Date.now() - started) / 1000).toFixed(0)} s\n`)
+  }
+  return [...groups.values()]
 }
 
-console.log(`α ${settings.alpha}, on-delay ${ON_DELAY}, every ${settings.evaluateEvery}, bandwidth ${settings.detrendBandwidthS}, first judgement after ${settings.minTrendSamples}; ${SEEDS} records of ${N} per kind`)
-Object.entries(KINDS).forEach(([name, make], k) => {
-  if (ONLY && !name.includes(ONLY)) return
-  let alerted = 0
-  for (let s = 0; s < SEEDS; s++) if (alerts(make(createRng(1_000 * s + 17 * k + 13)), s + 1) > 0) alerted++
-  console.log(`${name.padEnd(26)} ${String(alerted).padStart(3)}/${SEEDS}`)
-})
+const pct = (k: number, n: number) => {
+  const { low, high } = wilson(k, n)
+  return `${String(k).padStart(3)}/${n} [${(100 * low).toFixed(0)}–${(100 * high).toFixed(0)}]`
+}
+
+function report(groups: readonly Group[], candidate: Candidate): void {
+  console.log(`\nexpanding α ${candidate.expandingAlpha}, sliding budget ${candidate.budgetPerTagDay}/tag-day (look α ${slidingLookAlpha({ ...settings, alpha: 1 }, 1, candidate.budgetPerTagDay).toExponential(1)} at 1 s), on-delay ${candidate.onDelay}`)
+  for (const g of groups) {
+    const perRecord = g.looks.map(l => raises(l, candidate))
+    const alerted = perRecord.filter(r => r.length > 0).length
+    const total = perRecord.reduce((s, r) => s + r.length, 0)
+    const rate = g.length === 'long' && !g.forced ? `  ${(1000 * total / (g.samples / DAY_S)).toFixed(0)} per 1,000 tag-days at 1 s` : ''
+    console.log(`  ${(g.forced ? 'FORCED ' : 'null   ') + g.name.padEnd(34)} ${g.length.padEnd(5)} ${pct(alerted, perRecord.length)}${rate}`)
+  }
+}
+
+// CACHE=file keeps the looks, so further decision grids replay them without re-evaluating.
+const cache = process.env.CACHE
+const groups: Group[] = cache && existsSync(cache) ? JSON.parse(readFileSync(cache, 'utf8')) : collect()
+if (cache && !existsSync(cache)) writeFileSync(cache, JSON.stringify(groups))
+const grid = (process.env.GRID ?? '0.005:0.02:1,0.008:0.02:1,0.01:0.02:1,0.004:0.02:0,0.005:0.02:0').split(',')
+for (const entry of grid) {
+  const [expandingAlpha, budgetPerTagDay, onDelay] = entry.split(':').map(Number) as [number, number, number]
+  report(groups, { expandingAlpha, budgetPerTagDay, onDelay })
+}

@@ -13,7 +13,7 @@ import { checkQuality, DEFAULT_QUALITY_LIMITS } from '../analysis/quality'
 import { createRng } from '../analysis/random'
 import { segmentedResiduals } from '../analysis/segmentedResiduals'
 import { stabilityTrendTest } from '../analysis/stabilityTrend'
-import type { IndicatorSettings } from './indicatorDefaults'
+import { slidingLookAlpha, type IndicatorSettings } from './indicatorDefaults'
 
 export interface EvaluationPoint {
   /** Seconds since the epoch: the newest sample of the window. */
@@ -120,7 +120,7 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, usableFrom: Int
   const judged = time('trend tests', () => {
     const stability = stabilityTrendTest(trendResiduals, settings.surrogates, createRng(seedFor(input.tagId, times[end]!)))
     const variance = varianceChange(trendResiduals, stability.fit.phiMiddle)
-    return { stability, variance, evidence: judgeEvidence(stability, variance, lookAlpha(settings, end + 1 - trendStart)) }
+    return { stability, variance, evidence: judgeEvidence(stability, variance, lookAlpha(settings, input.samplePeriodS, end + 1 - trendStart)) }
   })
   const taus = time('trend tests', () => displayTaus(trendTimes, trendResiduals, settings))
   const rising = judged.stability.fit.slope > 0
@@ -139,16 +139,13 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, usableFrom: Int
 }
 
 /**
- * α of one look. While the trend window is still growing from its minimum, successive looks are
- * nested (each adds `evaluateEvery` samples to the same data) and together spend about one
- * test's worth of error; once it slides, every trend window's length brings new data, so a
- * stream running for weeks keeps taking new chances and needs the small per-look α. The factor
- * was set by the whole-procedure study (indicatorDefaults.ts: 5 × 0.001 on short records, 0.001
- * on week-long streams).
+ * α of one look. While the trend window still grows from its minimum, successive looks are nested
+ * (each adds `evaluateEvery` samples to the same data) and together spend about one test's worth
+ * of error; once it slides, every trend window's worth of data brings a new chance, and the look
+ * spends the tag's false-alert budget per day instead (indicatorDefaults.ts slidingLookAlpha).
  */
-export const EXPANDING_ALPHA_FACTOR = 5
-function lookAlpha(settings: IndicatorSettings, trendSamples: number): number {
-  return trendSamples < settings.trendWindowSamples ? EXPANDING_ALPHA_FACTOR * settings.alpha : settings.alpha
+function lookAlpha(settings: IndicatorSettings, samplePeriodS: number, trendSamples: number): number {
+  return trendSamples < settings.trendWindowSamples ? settings.alpha : slidingLookAlpha(settings, samplePeriodS)
 }
 
 /**

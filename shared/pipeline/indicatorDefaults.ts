@@ -16,14 +16,14 @@ export interface IndicatorSettings {
 /**
  * The trend window expands from 200 usable samples (a judgement within a few hundred samples of a
  * start, a step or a new tag) to 1,200 (longer windows add power on slow approaches; the cost of a
- * bootstrap grows with them). Evaluated every 20 samples at α 0.001, with the rule's on-delay of one
- * evaluation (two verdicts in a row). Chosen by the whole-procedure study in
- * scripts/calibrateEarlyWarning.ts (numbers beside EARLY_WARNING_DELAYS).
+ * bootstrap grows with them). Evaluated every 20 samples; α 0.008 per look while the window grows
+ * (those looks are nested, so together they spend about one test's worth of error), then the
+ * false-alert budget below. Chosen by the whole-procedure study (numbers beside EARLY_WARNING_DELAYS).
  */
 const TREND_WINDOW_SAMPLES = 1200
 const MIN_TREND_SAMPLES = 200
 const EVALUATE_EVERY = 20
-const ALPHA = 0.001
+const ALPHA = 0.008
 
 export function defaultIndicatorSettings(samplePeriodS: number): IndicatorSettings {
   if (!(samplePeriodS > 0)) throw new RangeError(`sample period must be positive, got ${samplePeriodS}`)
@@ -41,6 +41,7 @@ export function defaultIndicatorSettings(samplePeriodS: number): IndicatorSettin
     evaluateEvery: EVALUATE_EVERY,
     // 99 bootstrap series fix the mean and SD of the null distribution the p is read from.
     surrogates: 99,
+    // α of a look while the trend window grows; once it slides, slidingLookAlpha (never above it).
     alpha: ALPHA,
   }
 }
@@ -58,25 +59,51 @@ export interface EvaluationDelays {
 /**
  * The slowing-down alert raises when two evaluations in a row (on-delay one evaluation interval)
  * say "slowing down". A tag is re-tested every 20 samples on overlapping data for as long as it
- * runs (docs/science.md §S8.2), so α per look and the on-delay were set on whole records, short
- * ones and week-long streams alike. Study (scripts/calibrateEarlyWarning.ts; short: SEEDS=150,
- * 500 samples; long: N=10080 SEEDS=12 ONLY="AR(1) φ 0.9", a week at 60 s) — records alerted:
- *   α      on-delay  harvesting fold  worst short null          long AR(1) φ 0.9 streams
- *   0.01   1         42/150           7/150 (white noise)       7/12   (p from the Monte-Carlo count)
- *   0.005  2         17/150           4/150 (white noise)       4/12
- *   0.002  0         38/150           5/150 (AR(1), white)      6/12
- *   0.002  1         21/150           3/150 (white noise)       2/12
- *   0.001  1 chosen  11/150           2/150 (white noise)       1/12
- * The week-long streams set the per-look α: at 0.01 most null tag-weeks raised a false alert. On
- * the demo's steady unit (scripts/bench/detection.ts steadyUnitNulls, seeds 1–12, 24 tag-weeks at
- * 60 s) α 0.002 raised 5 false alerts and α 0.001 raised 1 (0.04 per tag-week).
- * While the trend window still grows, looks are nested and the look's α is 5 × 0.001
- * (evaluateRecord EXPANDING_ALPHA_FACTOR): short records then alert on the harvesting fold in
- * 33/150 (11/150 without the factor), every short null ≤ 6/150 (white noise; AR(1) φ 0.9 5/150),
- * week-long AR(1) φ 0.9 streams 1/12, the steady unit still 1 in 24 tag-weeks.
- * Detection power on short records is the open problem: records that stop far from the fold are
- * missed (scripts/bench/earlyWarning.ts lists them). The off-delay keeps a raised alert through a
- * few weaker evaluations.
+ * runs (docs/science.md §S8.2), so the looks' α and the on-delay were set on whole records by
+ * scripts/calibrateEarlyWarning.ts (the detection study's simulations, seeds the benchmark does
+ * not score; 100 records of 500 samples per set, 4 streams of 10,000 per set) — records alerted:
+ *   α while growing  on-delay  harvesting fold  lake fold  worst short null (of 13 kinds)
+ *   0.005            1         14/100           5/100      2/100
+ *   0.008            1 chosen  19/100           6/100      4/100 (white meas. noise; quantised)
+ *   0.01             1         21/100           7/100      5/100
+ *   0.004            0         23/100           8/100      4/100
+ *   0.005            0         28/100          10/100      6/100
+ * Without the on-delay single extreme looks raise: on long null streams the sliding phase then
+ * raised 26–62 alerts per trend window per unit α at α 0.001–0.0003 (the bootstrap's fitted normal
+ * tail is too thin that far out), against a steady 9–11 with it; the on-delay is kept.
+ * Power on short records is the open problem: records that stop far from the fold are missed
+ * (scripts/bench/earlyWarning.ts lists them). The off-delay keeps a raised alert through a few
+ * weaker evaluations.
  */
 export const EARLY_WARNING_DELAYS: EvaluationDelays = { onDelayEvaluations: 1, offDelayEvaluations: 4 }
 export const FOLD_IN_VIEW_DELAYS: EvaluationDelays = { onDelayEvaluations: 1, offDelayEvaluations: 3 }
+
+const DAY_S = 86_400
+/**
+ * False slowing-down alerts a sliding trend window raises per unit of look α, per trend window's
+ * worth of data, overlapping looks and the on-delay included: 8.5–10.6 on the long null streams of
+ * scripts/calibrateEarlyWarning.ts at α 0.0003–0.03 (378 windows, 13 null kinds).
+ */
+export const FALSE_ALERTS_PER_WINDOW_PER_ALPHA = 10
+
+/**
+ * The false slowing-down alerts one tag may raise per day on data that hold no approach: 20 per
+ * 1,000 tag-days, so a 1,000-tag plant sees about 20 advisory alerts a day it would rather not,
+ * counted apart from its alarms (docs/science.md §S8.3), whatever the tags' sample periods.
+ */
+export const FALSE_ALERT_BUDGET_PER_TAG_DAY = 0.02
+
+/**
+ * α of one look once the trend window slides. A tag re-tested every few samples for weeks takes a
+ * new chance with every trend window's worth of data, so a fixed α would make a 1 s tag raise 60
+ * times the false alerts of a 60 s one. Spending a budget per tag-day gives every tag the same
+ * expected rate: at 1 s α ≈ 2.8e-5, at 5 s ≈ 1.4e-4, at 60 s ≈ 1.7e-3 (never above the tag's α).
+ */
+export function slidingLookAlpha(
+  settings: Pick<IndicatorSettings, 'trendWindowSamples' | 'alpha'>,
+  samplePeriodS: number,
+  budgetPerTagDay = FALSE_ALERT_BUDGET_PER_TAG_DAY,
+): number {
+  const windowsPerDay = DAY_S / (settings.trendWindowSamples * samplePeriodS)
+  return Math.min(settings.alpha, budgetPerTagDay / (windowsPerDay * FALSE_ALERTS_PER_WINDOW_PER_ALPHA))
+}
