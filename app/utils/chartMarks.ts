@@ -6,6 +6,17 @@ type Priority = ChartThreshold['priority']
 export const ruleThresholdLine = (rule: { threshold: number, comparison: string, priority: string, name: string }): ChartThreshold =>
   ({ value: rule.threshold, priority: rule.priority as Priority, label: `${rule.name}: ${rule.comparison} ${formatValue(rule.threshold)}` })
 
-/** An alarm's raising as a marker at its time, labelled with its priority. */
-export const alarmMarker = (alarm: { time: number, priority: string }): ChartMarker =>
-  ({ time: alarm.time, priority: alarm.priority as Priority, label: `${alarm.priority} alarm` })
+/**
+ * An alarm's activation as a marker at its time: "urgent alarm", "medium advisory alert" (an
+ * alert is advisory, never called an alarm); a re-activation is dashed and says which one it is.
+ */
+export const alarmMarker = (mark: { time: number, priority: string, alarmClass?: string, activation?: number }): ChartMarker => {
+  const kind = mark.alarmClass === 'alert' ? 'alert' : 'alarm'
+  const again = (mark.activation ?? 1) > 1
+  return {
+    time: mark.time,
+    priority: mark.priority as Priority,
+    label: again ? `${kind} again (#${mark.activation})` : `${mark.priority} ${kind}`,
+    dashed: again,
+  }
+}

@@ -4,7 +4,8 @@ import { MEASURE_LABELS } from '#shared/notifications/alarmMail'
 import type { AlarmClass, Priority } from '#shared/alarms/vocabulary'
 import { alarmRules, alarms, sites, tags, units } from '../db/schema'
 
-export const alarmLink = (publicUrl: string, id: number) => `${publicUrl.replace(/\/$/, '')}/alarms?id=${id}`
+/** The alarm's own page: its facts and every event of the occurrence (docs/design.md §D5). */
+export const alarmLink = (publicUrl: string, id: number) => `${publicUrl.replace(/\/$/, '')}/alarms/${id}`
 
 /** Everything a message about these alarms says, read in one query. */
 export async function loadAlarmMailFacts(db: DbExecutor, ids: number[], publicUrl: string): Promise<AlarmMailFacts[]> {
@@ -33,8 +34,10 @@ export async function loadAlarmMailFacts(db: DbExecutor, ids: number[], publicUr
       measureLabel: MEASURE_LABELS[alarm.measure] ?? alarm.measure,
       comparison: alarm.comparison as 'above' | 'below',
       threshold: alarm.threshold,
-      value: alarm.raisedValue,
+      value: alarm.activatedValue,
       raisedAt: alarm.raisedAt.toISOString(),
+      activatedAt: alarm.activatedAt.toISOString(),
+      activationCount: alarm.activationCount,
       latestValue: alarm.lastValue,
       trend: context.trend ?? null,
       fold: context.fold ?? { kind: 'none' },

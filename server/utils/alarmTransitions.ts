@@ -20,6 +20,8 @@ export interface TransitionOptions {
   value?: number | null
   requestId?: string
   shelve?: { until: Date, reason: string }
+  /** On an activation: the trend and fold facts at that moment (stored on the alarm and its event). */
+  context?: Record<string, unknown>
 }
 
 const actorOf = (ctx: ChangeContext) => (ctx.userId === null ? 'system' : `user:${ctx.userId}`)
@@ -40,6 +42,12 @@ export async function transitionAlarm(tx: DbTransaction, alarm: AlarmRow, event:
   const set: Partial<typeof alarms.$inferInsert> = { state: t.to.state, conditionActive: t.to.conditionActive, updatedAt: now }
   if (event === 'acknowledge') Object.assign(set, { ackedAt: now, ackedBy: ctx.userId })
   if (event === 'return') set.clearedAt = options.conditionTime ?? now
+  // Every activation of the occurrence (the first, and each re-activation after a return or
+  // while set aside) becomes its latest: lists, tiles and mail speak of it, not of the first.
+  if (event === 'activate') {
+    Object.assign(set, { activatedAt: options.conditionTime ?? now, activatedValue: options.value ?? null, activationCount: alarm.activationCount + 1 })
+    if (options.context) set.context = options.context
+  }
   // A new annunciation needs a new acknowledgement.
   if (t.annunciates) Object.assign(set, { ackedAt: null, ackedBy: null, clearedAt: null })
   if (t.closes) set.closedAt = now
@@ -59,6 +67,7 @@ export async function transitionAlarm(tx: DbTransaction, alarm: AlarmRow, event:
     userId: ctx.userId,
     comment: options.comment ?? '',
     value: options.value ?? null,
+    context: event === 'activate' ? options.context ?? null : null,
     requestId: options.requestId ?? null,
   })
   if (t.annunciates) await enqueueAlarmMail(tx, updated!, ctx.publicUrl)
@@ -87,13 +96,14 @@ export async function raiseAlarm(tx: DbTransaction, rule: AlarmRuleRow, input: {
     ruleId: rule.id, siteId: rule.siteId, unitId: rule.unitId, tagId: rule.tagId,
     priority: rule.priority, alarmClass: rule.alarmClass, measure: rule.measure, comparison: rule.comparison,
     threshold: rule.threshold, state: 'normal', conditionActive: false, raisedAt: input.time, raisedValue: input.value,
-    activatedAt: input.time, activatedValue: input.value,
+    // Counted up to 1 by the activation below.
+    activatedAt: input.time, activatedValue: input.value, activationCount: 0,
     context: input.context,
   }).returning()
   let alarm = row!
   const enter = modeEvent('normal', rule.mode as RuleMode)
   if (enter) alarm = await transitionAlarm(tx, alarm, enter, ctx, { comment: `rule is ${rule.mode.replace(/_/g, ' ')}` })
-  return transitionAlarm(tx, alarm, 'activate', ctx, { conditionTime: input.time, value: input.value })
+  return transitionAlarm(tx, alarm, 'activate', ctx, { conditionTime: input.time, value: input.value, context: input.context })
 }
 
 /** The rule's open occurrence, locked for this transaction. */

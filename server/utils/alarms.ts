@@ -1,7 +1,7 @@
 import { and, asc, desc, eq, gte, inArray, lte, ne, sql, type SQL } from 'drizzle-orm'
 import { PRIORITIES } from '#shared/alarms/vocabulary'
 import type { AlarmListQuery } from '#shared/schemas/alarm'
-import { alarmEvents, alarmRules, alarms, tags, units } from '../db/schema'
+import { alarmEvents, alarmRules, alarms, tags, units, users } from '../db/schema'
 
 export type AlarmFilters = Partial<AlarmListQuery> & { limit: number }
 
@@ -22,8 +22,12 @@ function alarmSelection(db: Db | DbExecutor) {
     threshold: alarms.threshold,
     raisedAt: alarms.raisedAt,
     raisedValue: alarms.raisedValue,
+    activatedAt: alarms.activatedAt,
+    activatedValue: alarms.activatedValue,
+    activationCount: alarms.activationCount,
     ackedAt: alarms.ackedAt,
     ackedBy: alarms.ackedBy,
+    ackedByName: users.name,
     clearedAt: alarms.clearedAt,
     closedAt: alarms.closedAt,
     shelvedUntil: alarms.shelvedUntil,
@@ -45,11 +49,13 @@ function alarmSelection(db: Db | DbExecutor) {
     .innerJoin(alarmRules, eq(alarmRules.id, alarms.ruleId))
     .innerJoin(units, eq(units.id, alarms.unitId))
     .leftJoin(tags, eq(tags.id, alarms.tagId))
+    .leftJoin(users, eq(users.id, alarms.ackedBy))
 }
 
 /**
- * `active`: every occurrence not back to normal, most urgent first, newest first within a
- * priority. `history`: all occurrences, newest first. Filters narrow either view.
+ * `active`: every occurrence not back to normal, most urgent first, then by latest activation
+ * (a re-raised alarm counts as new). `history`: all occurrences by latest activation, newest
+ * first. Filters narrow either view (from/to on the first raise).
  */
 export function listAlarms(db: Db | DbExecutor, filters: AlarmFilters) {
   const active = (filters.view ?? 'active') === 'active'
@@ -60,7 +66,7 @@ export function listAlarms(db: Db | DbExecutor, filters: AlarmFilters) {
   if (filters.state) where.push(eq(alarms.state, filters.state))
   if (filters.from) where.push(gte(alarms.raisedAt, filters.from))
   if (filters.to) where.push(lte(alarms.raisedAt, filters.to))
-  const order = active ? [asc(priorityOrder), desc(alarms.raisedAt), desc(alarms.id)] : [desc(alarms.raisedAt), desc(alarms.id)]
+  const order = active ? [asc(priorityOrder), desc(alarms.activatedAt), desc(alarms.id)] : [desc(alarms.activatedAt), desc(alarms.id)]
   return alarmSelection(db).where(and(...where)).orderBy(...order).limit(filters.limit)
 }
 
@@ -70,7 +76,11 @@ export type AlarmListRow = Awaited<ReturnType<typeof listAlarms>>[number]
 export async function getAlarmWithEvents(db: Db, id: number) {
   const [alarm] = await alarmSelection(db).where(eq(alarms.id, id))
   if (!alarm) return undefined
-  const events = await db.select().from(alarmEvents).where(eq(alarmEvents.alarmId, id)).orderBy(asc(alarmEvents.id))
+  // Each event with the name of who acted, for the trail on the alarm's page.
+  const rows = await db.select({ event: alarmEvents, userName: users.name }).from(alarmEvents)
+    .leftJoin(users, eq(users.id, alarmEvents.userId))
+    .where(eq(alarmEvents.alarmId, id)).orderBy(asc(alarmEvents.id))
+  const events = rows.map(r => ({ ...r.event, userName: r.userName }))
   return { ...alarm, events }
 }
 

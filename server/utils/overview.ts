@@ -33,8 +33,8 @@ async function readOverviewRows(db: Db): Promise<OverviewRow[]> {
     left join (
       select a.tag_id,
         count(*) filter (where a.state in ('unacknowledged', 'rtn_unacknowledged')) as n,
-        (array_agg(a.class order by a.class = 'alarm' desc, a.raised_at desc) filter (where a.state in ('unacknowledged', 'acknowledged')))[1] as open_class,
-        (array_agg(r.name order by a.class = 'alarm' desc, a.raised_at desc) filter (where a.state in ('unacknowledged', 'acknowledged')))[1] as open_name
+        (array_agg(a.class order by a.class = 'alarm' desc, a.activated_at desc) filter (where a.state in ('unacknowledged', 'acknowledged')))[1] as open_class,
+        (array_agg(r.name order by a.class = 'alarm' desc, a.activated_at desc) filter (where a.state in ('unacknowledged', 'acknowledged')))[1] as open_name
       from alarms a join alarm_rules r on r.id = a.rule_id
       where a.state <> 'normal' and a.tag_id is not null
       group by a.tag_id) unacked on unacked.tag_id = t.id

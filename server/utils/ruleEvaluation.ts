@@ -60,7 +60,11 @@ export async function observe(tx: DbTransaction, rt: RuleRuntime, time: number, 
     return
   }
   if (!open) return
-  await transitionAlarm(tx, open, step.change, ctx, { conditionTime: at, value: Number.isFinite(value) ? value : null }).catch((err) => {
+  await transitionAlarm(tx, open, step.change, ctx, {
+    conditionTime: at, value: Number.isFinite(value) ? value : null,
+    // A re-activation is described by the facts of now, not those of the first raise.
+    context: step.change === 'activate' ? context() : undefined,
+  }).catch((err) => {
     // The point's stored state already reflects this change (e.g. set aside and re-synced): keep going.
     if (!(err instanceof AlarmTransitionRefused)) throw err
   })

@@ -1,3 +1,4 @@
+import { findActivationMarks } from '../services/alarms/activationMarks'
 import { SERIES_RANGES, type SeriesRange } from '#shared/schemas/series'
 import { chartIndicatorSettings, type StoredIndicatorSettings } from '#shared/utils/chartIndicatorSettings'
 import { buildTagSeries } from '#shared/utils/tagSeries'
@@ -45,18 +46,15 @@ export async function loadSamplesSince(db: Db, tagId: number, fromSeconds: numbe
 
 const CHARTED_MEASURES = ['value', 'variance', 'ar1', 'recovery_rate']
 
-/** The tag's enabled rules on charted measures (threshold lines) and its alarms raised in the range (markers). */
+/** The tag's enabled rules on charted measures (threshold lines) and its alarms' activations in the range (markers). */
 export async function findTagRuleMarks(db: Db, tagId: number, fromS: number, toS: number) {
   const [thresholds, markers] = await Promise.all([
     db.$sql<{ measure: string, threshold: number, comparison: string, priority: string, name: string }[]>`
       select measure, threshold, comparison, priority, name from alarm_rules
       where tag_id = ${tagId} and enabled and mode <> 'out_of_service' and measure = any(${db.$sql.array(CHARTED_MEASURES)}::text[])`,
-    db.$sql<{ id: number, time: number, priority: string, measure: string, state: string }[]>`
-      select id, extract(epoch from raised_at)::float8 as time, priority, measure, state from alarms
-      where tag_id = ${tagId} and raised_at between to_timestamp(${fromS}) and to_timestamp(${toS})
-      order by raised_at`,
+    findActivationMarks(db, { tagId }, fromS, toS),
   ])
-  return { thresholds, markers: markers.map(m => ({ ...m, id: Number(m.id) })) }
+  return { thresholds, markers }
 }
 
 /** The tag-detail charts for the range ending now, or undefined for an unknown tag. */

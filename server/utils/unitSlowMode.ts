@@ -1,3 +1,4 @@
+import { findActivationMarks } from '../services/alarms/activationMarks'
 import { SERIES_RANGES, type SeriesRange } from '#shared/schemas/series'
 import { buildUnitSlowMode } from '#shared/utils/unitSlowMode'
 
@@ -11,18 +12,15 @@ export async function findUnitTags(db: Db, unitId: number) {
   return { unit, tags }
 }
 
-/** The unit's own rules on its slowest recovery rate (threshold lines) and their alarms in the range (markers). */
+/** The unit's own rules on its slowest recovery rate (threshold lines) and their alarms' activations in the range (markers). */
 async function findUnitRuleMarks(db: Db, unitId: number, fromS: number, toS: number) {
   const [thresholds, markers] = await Promise.all([
     db.$sql<{ threshold: number, comparison: string, priority: string, name: string }[]>`
       select threshold, comparison, priority, name from alarm_rules
       where unit_id = ${unitId} and target_kind = 'unit' and enabled and mode <> 'out_of_service'`,
-    db.$sql<{ id: number, time: number, priority: string }[]>`
-      select id, extract(epoch from raised_at)::float8 as time, priority from alarms
-      where unit_id = ${unitId} and tag_id is null and raised_at between to_timestamp(${fromS}) and to_timestamp(${toS})
-      order by raised_at`,
+    findActivationMarks(db, { unitId }, fromS, toS),
   ])
-  return { thresholds, markers: markers.map(m => ({ ...m, id: Number(m.id) })) }
+  return { thresholds, markers }
 }
 
 /** The unit's slow mode over the range ending now, or undefined for an unknown unit. */

@@ -19,6 +19,19 @@ export const LIFECYCLE_EVENTS = [
 ] as const
 export type LifecycleEvent = typeof LIFECYCLE_EVENTS[number]
 
+/** How each event reads in an alarm's trail ("activated" is "activated again" after the first). */
+export const LIFECYCLE_EVENT_LABELS: Record<LifecycleEvent, string> = {
+  activate: 'activated',
+  return: 'returned to normal',
+  acknowledge: 'acknowledged',
+  shelve: 'shelved',
+  unshelve: 'unshelved',
+  suppress: 'suppressed by design',
+  unsuppress: 'suppression ended',
+  remove_from_service: 'removed from service',
+  return_to_service: 'returned to service',
+}
+
 export type Transition =
   | {
     ok: true

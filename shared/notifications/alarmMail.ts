@@ -21,8 +21,14 @@ export interface AlarmMailFacts {
   measureLabel: string
   comparison: 'above' | 'below'
   threshold: number
+  /** The value at the latest activation. */
   value: number | null
+  /** The first activation of this occurrence. */
   raisedAt: string
+  /** The latest activation (the first until the alarm re-activates). */
+  activatedAt: string
+  /** Activations in this occurrence, the first included. */
+  activationCount: number
   latestValue: number | null
   trend: { tauAr1: number | null, pAr1: number | null, tauVariance: number | null, pVariance: number | null, evidence: string | null } | null
   fold: { kind: 'projected', seconds: number, lowSeconds: number, highSeconds: number } | { kind: 'none' }
@@ -46,12 +52,27 @@ export function foldLine(fold: AlarmMailFacts['fold']): string {
   return `Fold horizon: projected in ${duration(fold.seconds)} (band ${duration(fold.lowSeconds)} to ${duration(fold.highSeconds)}).`
 }
 
+const DECISION_REASON: Record<string, string> = {
+  'slowing down': 'the autocorrelation (recovery-rate) test is below its per-look significance level with the autocorrelation rising, and the variance is not falling',
+  'noise level changed': 'the variance changed significantly, but the autocorrelation did not rise significantly; a variance change alone is not slowing down',
+  'no trend': 'neither p is at or below the per-look significance level (kept far below 0.05 because the test is repeated every few samples), so no trend is claimed',
+}
+
 export function trendLines(trend: AlarmMailFacts['trend']): string[] {
   if (!trend) return ['Trend: not evaluated yet for this tag.']
   return [
-    `Trend of lag-1 autocorrelation: Kendall tau ${number(trend.tauAr1)}, p ${number(trend.pAr1)} against surrogates.`,
-    `Trend of variance: Kendall tau ${number(trend.tauVariance)}, p ${number(trend.pVariance)}.`,
-    ...(trend.evidence ? [`Early-warning decision: ${trend.evidence}.`] : []),
+    `Trend of lag-1 autocorrelation: Kendall tau ${number(trend.tauAr1)}; stability test p ${number(trend.pAr1)} against surrogates.`,
+    `Trend of variance: Kendall tau ${number(trend.tauVariance)}; change p ${number(trend.pVariance)}.`,
+    ...(trend.evidence ? [`Early-warning decision: ${trend.evidence}, because ${DECISION_REASON[trend.evidence] ?? 'of the tests above'}.`] : []),
+  ]
+}
+
+/** The latest activation, and for a re-activation which one it is and when the occurrence began. */
+export function activationLines(f: Pick<AlarmMailFacts, 'activatedAt' | 'raisedAt' | 'activationCount' | 'value' | 'timeZone'>, unitOfMeasure: string): string[] {
+  if (f.activationCount <= 1) return [`Raised:    ${plantTime(f.activatedAt, f.timeZone)} at ${number(f.value)}${unitOfMeasure}`]
+  return [
+    `Raised again: ${plantTime(f.activatedAt, f.timeZone)} at ${number(f.value)}${unitOfMeasure}`,
+    `           activation ${f.activationCount} of this occurrence, first raised ${plantTime(f.raisedAt, f.timeZone)}`,
   ]
 }
 
@@ -63,7 +84,7 @@ export function renderAlarmMail(f: AlarmMailFacts): { subject: string, text: str
     `Where:     ${target(f)}${f.tagDescription ? ` — ${f.tagDescription}` : ''}, ${f.unitName}`,
     `Rule:      ${f.ruleName}`,
     `Condition: ${f.measureLabel} ${f.comparison} ${number(f.threshold)}${unitOfMeasure}`,
-    `Raised:    ${plantTime(f.raisedAt, f.timeZone)} at ${number(f.value)}${unitOfMeasure}`,
+    ...activationLines(f, unitOfMeasure),
     `Latest:    ${number(f.latestValue)}${f.tagCode && f.engineeringUnit ? ` ${f.engineeringUnit}` : ''}`,
     '',
     ...trendLines(f.trend),
@@ -84,7 +105,7 @@ export function renderAlarmMail(f: AlarmMailFacts): { subject: string, text: str
 export function renderDigestMail(input: { siteName: string, alarms: AlarmMailFacts[], listLink: string }): { subject: string, text: string } {
   const sorted = [...input.alarms].sort((a, b) => priorityRank(a.priority) - priorityRank(b.priority) || a.alarmId - b.alarmId)
   const blocks = sorted.map(f => [
-    `- ${PRIORITY_WORD[f.priority]} ${kind(f.alarmClass)} ${target(f)}: ${f.measureLabel} ${f.comparison} ${number(f.threshold)}, raised ${plantTime(f.raisedAt, f.timeZone)} at ${number(f.value)}`,
+    `- ${PRIORITY_WORD[f.priority]} ${kind(f.alarmClass)} ${target(f)}: ${f.measureLabel} ${f.comparison} ${number(f.threshold)}, ${f.activationCount > 1 ? `raised again (activation ${f.activationCount})` : 'raised'} ${plantTime(f.activatedAt, f.timeZone)} at ${number(f.value)}`,
     `  ${foldLine(f.fold)}`,
     `  Operator action: ${f.operatorAction}`,
     `  ${f.link}`,

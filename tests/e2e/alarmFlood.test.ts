@@ -49,7 +49,7 @@ describe('alarm flood', () => {
     const digest = (await mailboxMessages(mailbox.httpPort)).find(m => m.subject.includes('flood digest'))
     expect(digest).toBeTruthy()
     expect(digest!.subject).toContain(`${inDigest.length} alarms`)
-    for (const id of inDigest) expect(digest!.text).toContain(`/alarms?id=${id}`)
+    for (const id of inDigest) expect(digest!.text).toContain(`/alarms/${id}`)
     expect(digest!.text).toContain(ADVISORY_CAUTION)
   })
 })

@@ -72,7 +72,7 @@ describe('live alarm lifecycle (ISA-18.2 state-transition diagram per docs/scien
     expect(mail!.subject).toContain('HIGH')
     expect(mail!.text).toContain(ADVISORY_CAUTION)
     expect(mail!.text).toContain(`Operator action: ${RULE.operatorAction}`)
-    expect(mail!.text).toContain(`http://brinkline.test:3000/alarms?id=${alarmId}`)
+    expect(mail!.text).toContain(`http://brinkline.test:3000/alarms/${alarmId}`)
     expect(mail!.text).toMatch(/Raised: .* at 101 K/)
     expect(mail!.text).toContain('Fold horizon:')
   })
@@ -146,5 +146,34 @@ describe('live alarm lifecycle (ISA-18.2 state-transition diagram per docs/scien
   it('keeps the tag status current for the overview', async () => {
     const [status] = await sql`select status, latest_value, unacked_alarms from tag_status where tag_id = ${tagId}`
     expect(status).toMatchObject({ latest_value: 105, unacked_alarms: 1 })
+  })
+
+  // ISA-18.2 (docs/science.md §S7.2): D → B when the condition returns before acknowledgement;
+  // the occurrence stays open, and what the operator reads must be the new activation.
+  it('re-raises an unacknowledged alarm that returned: latest activation time, value, count and context, in the list and the mail', async () => {
+    const [open] = (await alarmOf()).filter((a: { state: string }) => a.state !== 'normal')
+    await feed(94)
+    await tick()
+    expect((await call(`/api/alarms/${open.id}`, { cookie: operator })).body.state).toBe('rtn_unacknowledged')
+    const againAt = T0 + 1000 * nextSecond
+    await feed(108)
+    await tick()
+    const detail = (await call(`/api/alarms/${open.id}`, { cookie: operator })).body
+    expect(detail).toMatchObject({ state: 'unacknowledged', activationCount: 2, activatedValue: 108, raisedValue: 105 })
+    expect(new Date(detail.activatedAt).getTime()).toBe(againAt)
+    expect(new Date(detail.raisedAt).getTime()).toBeLessThan(againAt)
+    const activations = detail.events.filter((e: { event: string }) => e.event === 'activate')
+    expect(activations.map((e: { value: number }) => e.value)).toEqual([105, 108])
+    expect(activations[1].context).toHaveProperty('fold')
+    const active = (await call('/api/alarms?view=active', { cookie: operator })).body.alarms.find((a: { id: number }) => a.id === open.id)
+    expect(active).toMatchObject({ activationCount: 2, activatedValue: 108 })
+    let mail
+    for (let ticks = 1; ticks <= 2 && !mail; ticks++) {
+      mail = (await mailboxMessages(mailbox.httpPort)).find(m => m.subject.includes(TAG) && m.text.includes('Raised again'))
+      if (!mail) await tick()
+    }
+    expect(mail, 'no mail for the re-activation').toBeTruthy()
+    expect(mail!.text).toMatch(/Raised again: .* at 108 K/)
+    expect(mail!.text).toContain('activation 2 of this occurrence, first raised')
   })
 })

@@ -9,7 +9,7 @@ const FACTS: AlarmMailFacts = {
   alarmId: 42, priority: 'high', alarmClass: 'alarm', siteName: 'Test Works', timeZone: 'Europe/London',
   unitCode: 'U-1', unitName: 'Test unit', tagCode: 'TI-1', tagDescription: 'Test temperature', engineeringUnit: 'K',
   ruleName: 'TI-1 fold in view', measureLabel: 'fold horizon (s)', comparison: 'below', threshold: 1200, value: 900,
-  raisedAt: '2026-07-01T08:00:00.000Z', latestValue: 880,
+  raisedAt: '2026-07-01T08:00:00.000Z', activatedAt: '2026-07-01T08:00:00.000Z', activationCount: 1, latestValue: 880,
   trend: { tauAr1: 0.81, pAr1: 0.01, tauVariance: 0.4, pVariance: 0.03, evidence: 'slowing down' },
   fold: { kind: 'projected', seconds: 900, lowSeconds: 600, highSeconds: 1500 },
   consequence: 'Runaway.', likelyCause: 'Cooling lost.', operatorAction: 'Open the cooling valve.', link: 'http://x.test/alarms?id=42',
@@ -21,8 +21,9 @@ describe('alarm mail text', () => {
     expect(subject).toContain('HIGH alarm')
     expect(subject).toContain('TI-1 (U-1)')
     expect(text).toContain('Condition: fold horizon (s) below 1200')
-    expect(text).toContain('Kendall tau 0.81, p 0.01')
-    expect(text).toContain('Early-warning decision: slowing down.')
+    expect(text).toContain('Kendall tau 0.81; stability test p 0.01')
+    expect(text).toContain('Early-warning decision: slowing down, because')
+    expect(text).toContain('Raised:    2026-07-01 09:00:00 Europe/London (08:00:00 UTC) at 900')
     expect(text).toContain('Fold horizon: projected in 15 min (band 10 min to 25 min).')
     expect(text).toContain('Operator action: Open the cooling valve.')
     expect(text).toContain('Open the alarm: http://x.test/alarms?id=42')
@@ -34,6 +35,19 @@ describe('alarm mail text', () => {
     expect(subject).toContain('unit U-1')
     expect(text).toContain('no fold in view')
     expect(text).toContain('Trend: not evaluated yet')
+  })
+
+  it('writes a re-activation from its own facts: the latest time and value, which activation it is, and when the occurrence began', () => {
+    const { text } = renderAlarmMail({ ...FACTS, activatedAt: '2026-07-01T11:30:00.000Z', activationCount: 3, value: 640 })
+    expect(text).toContain('Raised again: 2026-07-01 12:30:00 Europe/London (11:30:00 UTC) at 640')
+    expect(text).toContain('activation 3 of this occurrence, first raised 2026-07-01 09:00:00 Europe/London')
+    expect(text).not.toMatch(/Raised: +2026-07-01 09:00/)
+  })
+
+  it('says why the early-warning decision is what it is (a p above the per-look level is not a trend)', () => {
+    const { text } = renderAlarmMail({ ...FACTS, trend: { ...FACTS.trend!, pVariance: 0.04, evidence: 'no trend' } })
+    expect(text).toContain('change p 0.04')
+    expect(text).toMatch(/Early-warning decision: no trend, because neither p is at or below the per-look significance level/)
   })
 
   it('calls an alert advisory', () => {
