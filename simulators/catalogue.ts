@@ -41,7 +41,9 @@ export const CATALOGUE: readonly CatalogueUnit[] = [
     description: 'Jacketed stirred-tank reactor on its cool branch; cooling-water temperature creeps up until it ignites.',
     drifts: true,
     tags: [
-      { code: 'TI-101', description: 'Reactor temperature', engineeringUnit: 'K', samplePeriodSeconds: 1, rangeLow: 300, rangeHigh: 500, noiseFloor: 0.1, resolution: 0.01 },
+      // 2 s, not 1 s: the 1,200-sample trend window then spans the 40-minute approach, so the slowing
+      // down shows before the runaway in 6 of 6 seeded cycles (3 of 6 at 1 s; scripts/bench/detection.ts).
+      { code: 'TI-101', description: 'Reactor temperature', engineeringUnit: 'K', samplePeriodSeconds: 2, rangeLow: 300, rangeHigh: 500, noiseFloor: 0.1, resolution: 0.01 },
       { code: 'AI-102', description: 'Reactant concentration (analyser)', engineeringUnit: 'mol/L', samplePeriodSeconds: 30, rangeLow: 0, rangeHigh: 1.2, noiseFloor: 0.005, resolution: 0.001 },
     ],
   },

@@ -13,7 +13,7 @@ const RESIDENCE_TIME_SECONDS = 600
 const { gamma } = URP_BENCHMARK
 
 // One wall second is 2.5 process minutes: far from the fold the reactor relaxes in about
-// 2θ ≈ 8 wall seconds (eight temperature samples), and the approach spans ~600 residence times,
+// 2θ ≈ 8 wall seconds (four temperature samples at 2 s), and the approach spans ~600 residence times,
 // enough relaxation times for rolling-window indicators to see the slowing down at demo pace.
 const RESIDENCE_TIMES_PER_WALL_SECOND = 150 / RESIDENCE_TIME_SECONDS
 const WALL_MINUTES_TO_FOLD = 40
