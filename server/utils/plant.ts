@@ -1,8 +1,8 @@
-import { asc, count, eq, sql } from 'drizzle-orm'
+import { and, asc, count, eq, isNull, sql } from 'drizzle-orm'
 import { sites, tags, units } from '../db/schema'
 
 export function listSites(db: Db) {
-  return db.select().from(sites).orderBy(asc(sites.name))
+  return db.select().from(sites).where(isNull(sites.retiredAt)).orderBy(asc(sites.name))
 }
 
 export function listUnits(db: Db) {
@@ -11,12 +11,13 @@ export function listUnits(db: Db) {
     description: units.description, siteName: sites.name, tagCount: count(tags.id),
   }).from(units)
     .innerJoin(sites, eq(sites.id, units.siteId))
-    .leftJoin(tags, eq(tags.unitId, units.id))
+    .leftJoin(tags, and(eq(tags.unitId, units.id), isNull(tags.retiredAt)))
+    .where(isNull(units.retiredAt))
     .groupBy(units.id, sites.name)
     .orderBy(asc(units.code))
 }
 
-/** Tags with their latest sample (one index probe per tag through the samples primary key). */
+/** Tags in service (retired ones are on the workbench) with their latest sample (one index probe per tag through the samples primary key). */
 export function listTagsWithLatest(db: Db) {
   return db.select({
     id: tags.id, code: tags.code, description: tags.description, engineeringUnit: tags.engineeringUnit,
@@ -26,5 +27,6 @@ export function listTagsWithLatest(db: Db) {
   }).from(tags)
     .innerJoin(units, eq(units.id, tags.unitId))
     .leftJoin(sql`lateral (select s.time, s.value from samples s where s.tag_id = ${tags.id} order by s.time desc limit 1) as latest`, sql`true`)
+    .where(isNull(tags.retiredAt))
     .orderBy(asc(tags.code))
 }

@@ -64,16 +64,22 @@ const tagFields = {
 
 type TagShape = Partial<{ rangeLow: number, rangeHigh: number, noiseFloor: number, quantisationStep: number, loopTagId: number | null, loopRole: string | null }>
 
-/** Checks across fields; on an edit only the fields sent together are compared (the rest is checked against the row). */
-export function tagCrossChecks(tag: TagShape, ctx: z.RefinementCtx) {
-  if (tag.rangeLow !== undefined && tag.rangeHigh !== undefined && !(tag.rangeHigh > tag.rangeLow))
-    ctx.addIssue({ code: 'custom', path: ['rangeHigh'], message: 'must be above the range low' })
-  if (tag.noiseFloor !== undefined && tag.rangeLow !== undefined && tag.rangeHigh !== undefined && tag.noiseFloor >= tag.rangeHigh - tag.rangeLow)
-    ctx.addIssue({ code: 'custom', path: ['noiseFloor'], message: 'must be smaller than the range span' })
-  if (tag.quantisationStep !== undefined && tag.rangeLow !== undefined && tag.rangeHigh !== undefined && tag.quantisationStep >= tag.rangeHigh - tag.rangeLow)
-    ctx.addIssue({ code: 'custom', path: ['quantisationStep'], message: 'must be smaller than the range span' })
+/** Checks across fields; on an edit the server runs them again on the tag as it would become. */
+export function tagCrossIssues(tag: TagShape): { field: string, message: string }[] {
+  const issues: { field: string, message: string }[] = []
+  const span = tag.rangeLow !== undefined && tag.rangeHigh !== undefined ? tag.rangeHigh - tag.rangeLow : undefined
+  if (span !== undefined && !(span > 0)) issues.push({ field: 'rangeHigh', message: 'must be above the range low' })
+  if (span !== undefined && span > 0 && tag.noiseFloor !== undefined && tag.noiseFloor >= span)
+    issues.push({ field: 'noiseFloor', message: 'must be smaller than the range span' })
+  if (span !== undefined && span > 0 && tag.quantisationStep !== undefined && tag.quantisationStep >= span)
+    issues.push({ field: 'quantisationStep', message: 'must be smaller than the range span' })
   if (tag.loopTagId !== undefined && tag.loopRole !== undefined && (tag.loopTagId === null) !== (tag.loopRole === null))
-    ctx.addIssue({ code: 'custom', path: [tag.loopTagId === null ? 'loopTagId' : 'loopRole'], message: 'is required when the other loop field is set' })
+    issues.push({ field: tag.loopTagId === null ? 'loopTagId' : 'loopRole', message: 'is required when the other loop field is set' })
+  return issues
+}
+
+function tagCrossChecks(tag: TagShape, ctx: z.RefinementCtx) {
+  for (const issue of tagCrossIssues(tag)) ctx.addIssue({ code: 'custom', path: [issue.field], message: issue.message })
 }
 
 export const tagCreateSchema = z.object({

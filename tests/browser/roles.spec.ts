@@ -10,7 +10,7 @@ await setupBuiltServer()
 // docs/design.md §D2.1: each role sees its own work. Admin pages are only in the admin's navigation.
 const EXPECTED_NAV: Record<Role, string[]> = {
   operator: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log'],
-  engineer: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Upload history'],
+  engineer: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Workbench', 'Upload history'],
   supervisor: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log'],
   admin: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Users', 'Gateways', 'Audit log'],
 }

@@ -1,0 +1,3 @@
+import { plantRetirementRoute } from '../../../services/plantModel/retirementRoute'
+
+export default plantRetirementRoute('site', true)

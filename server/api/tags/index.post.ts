@@ -1,0 +1,15 @@
+import { tagCreateSchema } from '#shared/schemas/plant'
+import { plantHttpError } from '../../services/plantModel/errors'
+import { createTag } from '../../services/plantModel/tags'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireCapability(event, 'configure')
+  const input = await validBody(event, tagCreateSchema)
+  const created = await useDb().transaction(async (tx) => {
+    const row = await createTag(tx, input).catch((err) => { throw plantHttpError(err) })
+    await writeAudit(tx, { userId: user.id, action: 'tag.create', target: row.code, detail: { id: row.id, after: row }, address: clientAddress(event) })
+    return row
+  })
+  setResponseStatus(event, 201)
+  return created
+})
