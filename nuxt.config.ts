@@ -29,6 +29,8 @@ export default defineNuxtConfig({
     pipeline: { scheduled: true },
     sender: { scheduled: true },
     session: { maxAge: 60 * 60 * 12 },
+    // Inactivity limit beside the 12 h absolute one (NIST SP 800-63B AAL2: 30 minutes).
+    sessionIdleMinutes: 30,
   },
   nitro: {
     preset: 'node-server',

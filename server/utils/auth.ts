@@ -1,12 +1,37 @@
 import type { H3Event } from 'h3'
 import type { User } from '#auth-utils'
 import { can, type Capability, type Role } from '#shared/utils/roles'
+import { accountState } from '../services/accounts/accountState'
+import { LAST_SEEN_REFRESH_MS, sessionRefusal } from '../services/accounts/sessionPolicy'
 
-/** 401 unless signed in with a session that was not signed out; returns the user and session id. */
+/** Inactivity after which a session ends (NUXT_SESSION_IDLE_MINUTES; 30 by default). */
+export const sessionIdleMs = () => Number(useRuntimeConfig().sessionIdleMinutes) * 60_000
+
+/**
+ * 401 unless signed in with a session that was not signed out and whose account still allows it
+ * (active, same role, not ended, not idle). Returns the user and session id.
+ */
 export async function requireLiveSession(event: H3Event): Promise<{ user: User, id: string | undefined }> {
-  const { user, id } = await requireUserSession(event, { message: 'Sign in required' })
-  if (id && await isSessionRevoked(useDb(), id)) throw createError({ statusCode: 401, message: 'This session was signed out; sign in again' })
+  const session = await requireUserSession(event, { message: 'Sign in required' })
+  const { user, id } = session
+  const db = useDb()
+  if (id && await isSessionRevoked(db, id)) throw createError({ statusCode: 401, message: 'This session was signed out; sign in again' })
+  await refuseStaleSession(event, session)
   return { user, id }
+}
+
+/** Ends the session (cookie cleared) with a 401 if its account no longer allows it; else marks it seen. */
+export async function refuseStaleSession(event: H3Event, session: { user: User, loggedInAt?: number, lastSeenAt?: number }): Promise<void> {
+  const now = Date.now()
+  const loggedInAt = Number(session.loggedInAt ?? 0)
+  const lastSeenAt = Number(session.lastSeenAt ?? loggedInAt)
+  const idleMs = sessionIdleMs()
+  const refusal = sessionRefusal({ role: session.user.role, loggedInAt, lastSeenAt }, await accountState(useDb(), session.user.id, now), now, idleMs)
+  if (refusal) {
+    await clearUserSession(event)
+    throw createError({ statusCode: 401, message: refusal })
+  }
+  if (now - lastSeenAt > Math.min(LAST_SEEN_REFRESH_MS, idleMs / 4)) await setUserSession(event, { lastSeenAt: now })
 }
 
 /** 401 unless signed in. Every protected route starts here or with requireRole. */

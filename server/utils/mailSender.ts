@@ -44,7 +44,7 @@ export async function sendDueMail(db: Db, transport: MailTransport, options: { f
       await tx.insert(outboxAttempts).values({ outboxId: row.id, ok: error === null, error, durationMs: Math.round(performance.now() - started) })
       const status = error === null ? 'sent' : attempts >= MAX_MAIL_ATTEMPTS ? 'failed' : 'pending'
       await tx.update(notificationOutbox).set({
-        subject: mail.subject, body: mail.text, attempts, status, lastError: error,
+        subject: mail.subject, body: keptBody(row.kind, mail.text, error === null), attempts, status, lastError: error,
         sentAt: error === null ? new Date() : null,
         nextAttemptAt: error === null ? row.nextAttemptAt : new Date(Date.now() + backoffDelay(attempts, RETRY, Math.random)),
       }).where(eq(notificationOutbox.id, row.id))
@@ -57,6 +57,10 @@ export async function sendDueMail(db: Db, transport: MailTransport, options: { f
   }
   return report
 }
+
+// A delivered account mail holds a one-time link; the outbox does not keep a usable copy of it.
+const keptBody = (kind: string, text: string, sent: boolean) =>
+  kind === 'account' && sent ? text.replace(/token=[A-Za-z0-9_-]+/g, 'token=(removed after delivery)') : text
 
 async function renderDigest(tx: DbTransaction, row: typeof notificationOutbox.$inferSelect, publicUrl: string) {
   // A digest always collects one site's alarms (only account mail has no site).

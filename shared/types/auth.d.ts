@@ -5,5 +5,10 @@ declare module '#auth-utils' {
     name: string
     role: 'operator' | 'engineer' | 'supervisor' | 'admin'
   }
+  interface UserSession {
+    /** Epoch ms of sign-in and of the last request (server/utils/auth.ts checks both). */
+    loggedInAt?: number
+    lastSeenAt?: number
+  }
 }
 export {}

@@ -1,4 +1,5 @@
 import { signInSchema } from '#shared/schemas/auth'
+import { normalisePassword } from '#shared/schemas/account'
 
 export default defineEventHandler(async (event) => {
   const { email, password } = await validBody(event, signInSchema)
@@ -9,7 +10,7 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 429, message: `Too many failed sign-ins; try again in ${SIGN_IN_LIMITS.windowMinutes} minutes` })
   }
   const user = await findActiveUserByEmail(db, email)
-  if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, password))) {
+  if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, normalisePassword(password)))) {
     await recordSignInFailure(db, email, address)
     await writeAudit(db, { userId: user?.id ?? null, action: 'sign-in.failed', target: email, address })
     // Same answer for unknown account and wrong password: don't reveal which accounts exist.
@@ -18,6 +19,8 @@ export default defineEventHandler(async (event) => {
   await markSignedIn(db, user.id, email)
   await writeAudit(db, { userId: user.id, action: 'sign-in', target: email, address })
   const sessionUser = { id: user.id, email: user.email, name: user.name, role: user.role }
-  await setUserSession(event, { user: sessionUser, loggedInAt: Date.now() })
+  const now = Date.now()
+  // A new session, not merged into whatever the browser carried (its old last-seen time included).
+  await replaceUserSession(event, { user: sessionUser, loggedInAt: now, lastSeenAt: now })
   return { user: sessionUser }
 })

@@ -1,3 +1,5 @@
+import { listUsers } from '../../../services/accounts/users'
+
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')
   return listUsers(useDb())
