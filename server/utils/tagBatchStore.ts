@@ -6,7 +6,7 @@ import type { AlarmClass, AlarmState } from '#shared/alarms/vocabulary'
 import { alarmRules, alarms, indicatorPoints, tagStatus, tags } from '../db/schema'
 import { jsonParam } from './tagBatchLoad'
 
-/** Rows per insert statement: PostgreSQL allows 65,535 bound parameters, a point has 18 columns. */
+/** Rows per insert statement: PostgreSQL allows 65,535 bound parameters, a point has 19 columns. */
 const POINT_ROWS_PER_INSERT = 2_000
 
 const msDate = (seconds: number) => new Date(Math.round(seconds * 1000))
@@ -16,9 +16,11 @@ const foldColumns = (fold: EvaluationPoint['fold']) => ({
   foldHighSeconds: fold.kind === 'projected' ? fold.highSeconds : null,
 })
 
-export async function storePoints(tx: DbTransaction, byTag: { tagId: number, points: EvaluationPoint[] }[]): Promise<void> {
-  const rows = byTag.flatMap(({ tagId, points }) => points.map(p => ({
+/** Stores each tag's points with the settings version that produced them (null: never-edited starting values). */
+export async function storePoints(tx: DbTransaction, byTag: { tagId: number, settingsVersionId: number | null, points: EvaluationPoint[] }[]): Promise<void> {
+  const rows = byTag.flatMap(({ tagId, settingsVersionId, points }) => points.map(p => ({
     tagId,
+    settingsVersionId,
     time: msDate(p.time),
     quality: p.quality,
     variance: p.variance, std: p.std, cv: p.cv, ar1: p.ar1, recoveryRate: p.recoveryRate, skewness: p.skewness, kurtosis: p.kurtosis,

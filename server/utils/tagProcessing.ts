@@ -46,7 +46,7 @@ export async function processTagBatch(db: Db, tagIds: number[], ctx: ChangeConte
       samplesSinceEvaluation: r.claim.samplesSinceEvaluation, samplePeriodS: r.tag.samplePeriodS, settings: r.settings,
     }))))
     const evaluated: EvaluatedTag[] = active.map((r, i) => ({ ...r, ...results[i]!, previous: previous.get(r.tag.id) ?? null }))
-    await clock.run('store points', () => storePoints(tx, evaluated.map(e => ({ tagId: e.tag.id, points: e.points }))))
+    await clock.run('store points', () => storePoints(tx, evaluated.map(e => ({ tagId: e.tag.id, settingsVersionId: e.settings.versionId, points: e.points }))))
     await clock.run('rules and alarms', () => runRules(tx, evaluated, ctx))
     await clock.run('status', () => storeStatuses(tx, evaluated.map(e => ({
       tag: e.tag, latest: e.points.at(-1) ?? e.previous, latestValue: e.v[e.v.length - 1]!, latestTime: e.t[e.t.length - 1]!,
