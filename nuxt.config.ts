@@ -25,6 +25,9 @@ export default defineNuxtConfig({
     smtpUrl: '',
     mailFrom: 'Brinkline <brinkline@localhost>',
     publicUrl: 'http://127.0.0.1:3000',
+    // An activation older than this when recorded came from back-filled or uploaded history: no
+    // mail of its own, one summary per site instead (NUXT_NOTIFY_MAX_AGE_MINUTES; docs/design.md §D4).
+    notify: { maxAgeMinutes: 30 },
     // Scheduled pipeline ticks and mail sending, per instance (NUXT_PIPELINE_SCHEDULED=false …).
     pipeline: { scheduled: true },
     sender: { scheduled: true },

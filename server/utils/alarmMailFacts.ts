@@ -39,6 +39,7 @@ export async function loadAlarmMailFacts(db: DbExecutor, ids: number[], publicUr
       activatedAt: alarm.activatedAt.toISOString(),
       activationCount: alarm.activationCount,
       latestValue: alarm.lastValue,
+      standing: alarm.state !== 'normal',
       trend: context.trend ?? null,
       fold: context.fold ?? { kind: 'none' },
       consequence: rule.consequence,

@@ -19,12 +19,16 @@ export async function recipientsFor(db: DbExecutor, alarm: Pick<AlarmRow, 'siteI
   return [...new Set([...routes.flatMap(r => (r.email ? [r.email] : [])), ...byRole.map(u => u.email)])].sort()
 }
 
-/** Annunciations on the site in the trailing flood window (this one included). */
-async function recentAnnunciations(db: DbExecutor, siteId: number): Promise<number> {
+/**
+ * Live annunciations on the site in the trailing flood window (this one included). Those from
+ * old history are left out: they are not mailed, so they must not push live alarms into a digest.
+ */
+async function recentAnnunciations(db: DbExecutor, siteId: number, maxAgeMinutes: number): Promise<number> {
   const [row] = await db.select({ n: sql<number>`count(*)::int` }).from(alarmEvents)
     .innerJoin(alarms, eq(alarms.id, alarmEvents.alarmId))
     .where(and(eq(alarms.siteId, siteId), eq(alarmEvents.toState, 'unacknowledged'),
-      gt(alarmEvents.at, sql`now() - make_interval(mins => ${FLOOD_WINDOW_MINUTES})`)))
+      gt(alarmEvents.at, sql`now() - make_interval(mins => ${FLOOD_WINDOW_MINUTES})`),
+      or(isNull(alarmEvents.conditionTime), sql`${alarmEvents.conditionTime} >= ${alarmEvents.at} - make_interval(mins => ${maxAgeMinutes})`)))
   return row!.n
 }
 
@@ -33,10 +37,10 @@ async function recentAnnunciations(db: DbExecutor, siteId: number): Promise<numb
  * mail exists exactly when the state change does. During a flood the alarm joins the site's open
  * digest instead (created on first need, sent after a short collection time).
  */
-export async function enqueueAlarmMail(tx: DbTransaction, alarm: AlarmRow, publicUrl: string): Promise<void> {
+export async function enqueueAlarmMail(tx: DbTransaction, alarm: AlarmRow, publicUrl: string, maxAgeMinutes: number): Promise<void> {
   const recipients = await recipientsFor(tx, alarm)
   if (recipients.length === 0) return
-  if (inFlood(await recentAnnunciations(tx, alarm.siteId))) {
+  if (inFlood(await recentAnnunciations(tx, alarm.siteId, maxAgeMinutes))) {
     await tx.insert(notificationOutbox).values({
       kind: 'digest', siteId: alarm.siteId, alarmIds: [alarm.id], recipients,
       nextAttemptAt: sql`now() + make_interval(secs => ${DIGEST_COLLECT_SECONDS})`,

@@ -1,7 +1,10 @@
 import { and, eq, ne } from 'drizzle-orm'
 import { applyLifecycleEvent, type LifecycleEvent } from '#shared/alarms/lifecycle'
 import type { AlarmState, RuleMode } from '#shared/alarms/vocabulary'
+import { DEFAULT_NOTIFY_MAX_AGE_MINUTES, isFromOldHistory } from '#shared/alarms/historyNotice'
+import { historyNoticeComment } from '#shared/notifications/historySummaryMail'
 import { alarmEvents, alarmRules, alarms } from '../db/schema'
+import { addToHistorySummary } from '../services/alarms/historySummary'
 
 export type DbTransaction = Parameters<Parameters<Db['transaction']>[0]>[0]
 export type AlarmRow = typeof alarms.$inferSelect
@@ -11,6 +14,8 @@ export type AlarmRuleRow = typeof alarmRules.$inferSelect
 export interface ChangeContext {
   userId: number | null
   publicUrl: string
+  /** Activations older than this when recorded are from old history (no single mail); default 30. */
+  notifyMaxAgeMinutes?: number
 }
 
 export interface TransitionOptions {
@@ -39,6 +44,10 @@ export async function transitionAlarm(tx: DbTransaction, alarm: AlarmRow, event:
   const t = applyLifecycleEvent({ state: alarm.state as AlarmState, conditionActive: alarm.conditionActive }, event)
   if (!t.ok) throw new AlarmTransitionRefused([{ alarmId: alarm.id, state: alarm.state, label: alarmLabel(alarm), reason: t.reason }])
   const now = new Date()
+  // An annunciating activation from back-filled or uploaded samples hours old (docs/design.md §D4 item 5).
+  const maxAge = ctx.notifyMaxAgeMinutes ?? DEFAULT_NOTIFY_MAX_AGE_MINUTES
+  const fromOldHistory = t.annunciates && event === 'activate' && options.conditionTime !== undefined
+    && isFromOldHistory(options.conditionTime.getTime(), now.getTime(), maxAge)
   const set: Partial<typeof alarms.$inferInsert> = { state: t.to.state, conditionActive: t.to.conditionActive, updatedAt: now }
   if (event === 'acknowledge') Object.assign(set, { ackedAt: now, ackedBy: ctx.userId })
   if (event === 'return') set.clearedAt = options.conditionTime ?? now
@@ -65,12 +74,13 @@ export async function transitionAlarm(tx: DbTransaction, alarm: AlarmRow, event:
     toState: t.to.state,
     actor: actorOf(ctx),
     userId: ctx.userId,
-    comment: options.comment ?? '',
+    comment: options.comment ?? (fromOldHistory ? historyNoticeComment((now.getTime() - options.conditionTime!.getTime()) / 1000) : ''),
     value: options.value ?? null,
     context: event === 'activate' ? options.context ?? null : null,
     requestId: options.requestId ?? null,
   })
-  if (t.annunciates) await enqueueAlarmMail(tx, updated!, ctx.publicUrl)
+  if (fromOldHistory) await addToHistorySummary(tx, updated!)
+  else if (t.annunciates) await enqueueAlarmMail(tx, updated!, ctx.publicUrl, maxAge)
   return updated!
 }
 

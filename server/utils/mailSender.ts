@@ -1,7 +1,9 @@
 import { and, asc, eq, lte, sql } from 'drizzle-orm'
 import { renderDigestMail } from '#shared/notifications/alarmMail'
 import { backoffDelay } from '../../simulators/lib/retryDelay'
+import { DEFAULT_NOTIFY_MAX_AGE_MINUTES } from '#shared/alarms/historyNotice'
 import { notificationOutbox, outboxAttempts, sites } from '../db/schema'
+import { renderHistorySummary } from '../services/alarms/historySummary'
 
 /** Attempts before a message is given up (marked failed, visible to admins): about 4 h of retries. */
 export const MAX_MAIL_ATTEMPTS = 12
@@ -25,7 +27,7 @@ export interface SendReport { sent: number, failed: number, retrying: number }
  * same Message-ID (outboxMessageId), so a mail system or reader can recognise the duplicate.
  * Exactly-once is not possible across SMTP without the relay's cooperation.
  */
-export async function sendDueMail(db: Db, transport: MailTransport, options: { from: string, publicUrl: string, batch?: number }): Promise<SendReport> {
+export async function sendDueMail(db: Db, transport: MailTransport, options: { from: string, publicUrl: string, batch?: number, notifyMaxAgeMinutes?: number }): Promise<SendReport> {
   const report: SendReport = { sent: 0, failed: 0, retrying: 0 }
   for (let n = 0; n < (options.batch ?? 50); n++) {
     const outcome = await db.transaction(async (tx) => {
@@ -33,7 +35,11 @@ export async function sendDueMail(db: Db, transport: MailTransport, options: { f
         .where(and(eq(notificationOutbox.status, 'pending'), lte(notificationOutbox.nextAttemptAt, new Date())))
         .orderBy(asc(notificationOutbox.id)).limit(1).for('update', { skipLocked: true })
       if (!row) return null
-      const mail = row.kind === 'digest' ? await renderDigest(tx, row, options.publicUrl) : { subject: row.subject, text: row.body }
+      const mail = row.kind === 'digest'
+        ? await renderDigest(tx, row, options.publicUrl)
+        : row.kind === 'history_summary'
+          ? await renderHistorySummary(tx, row, options.publicUrl, options.notifyMaxAgeMinutes ?? DEFAULT_NOTIFY_MAX_AGE_MINUTES)
+          : { subject: row.subject, text: row.body }
       const started = performance.now()
       const error = await transport.sendMail({
         from: options.from, to: row.recipients, subject: mail.subject, text: mail.text,

@@ -63,3 +63,19 @@ export type TagStatus = typeof TAG_STATUSES[number]
 /** The caution every alarm message and e-mail carries (docs/design.md §D1). */
 export const ADVISORY_CAUTION = 'Advisory only: Brinkline never writes to a control system. '
   + 'Follow the plant\'s operating procedures and the instructions of the responsible authority.'
+
+/** What each rule measure is, in words (mail, alarm lists, the alarm page). */
+export const MEASURE_LABELS: Record<string, string> = {
+  value: 'value',
+  variance: 'variance',
+  std: 'standard deviation',
+  cv: 'coefficient of variation',
+  ar1: 'lag-1 autocorrelation',
+  recovery_rate: 'recovery rate (1/s)',
+  skewness: 'skewness',
+  kurtosis: 'kurtosis',
+  p_ar1: 'p-value of the autocorrelation trend',
+  p_variance: 'p-value of the variance trend',
+  fold_horizon: 'fold horizon (s)',
+  early_warning: 'early-warning decision (1 = slowing down)',
+}

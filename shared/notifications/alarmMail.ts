@@ -30,6 +30,8 @@ export interface AlarmMailFacts {
   /** Activations in this occurrence, the first included. */
   activationCount: number
   latestValue: number | null
+  /** Whether the occurrence is still open (not back to normal) now. */
+  standing: boolean
   trend: { tauAr1: number | null, pAr1: number | null, tauVariance: number | null, pVariance: number | null, evidence: string | null } | null
   fold: { kind: 'projected', seconds: number, lowSeconds: number, highSeconds: number } | { kind: 'none' }
   consequence: string
@@ -122,17 +124,5 @@ export function renderDigestMail(input: { siteName: string, alarms: AlarmMailFac
   return { subject: `[Brinkline flood digest] ${input.siteName}: ${sorted.length} alarms`, text }
 }
 
-export const MEASURE_LABELS: Record<string, string> = {
-  value: 'value',
-  variance: 'variance',
-  std: 'standard deviation',
-  cv: 'coefficient of variation',
-  ar1: 'lag-1 autocorrelation',
-  recovery_rate: 'recovery rate (1/s)',
-  skewness: 'skewness',
-  kurtosis: 'kurtosis',
-  p_ar1: 'p-value of the autocorrelation trend',
-  p_variance: 'p-value of the variance trend',
-  fold_horizon: 'fold horizon (s)',
-  early_warning: 'early-warning decision (1 = slowing down)',
-}
+// Moved beside the closed set it labels; re-exported for the mail's callers.
+export { MEASURE_LABELS } from '../alarms/vocabulary'

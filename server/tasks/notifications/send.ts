@@ -7,6 +7,6 @@ export default defineTask<SendReport | string>({
     if (payload.scheduledTime && !config.sender.scheduled) return { result: 'scheduled runs are switched off' }
     const transport = useMailTransport()
     if (!transport) return { result: 'no SMTP relay configured (NUXT_SMTP_URL)' }
-    return { result: await sendDueMail(useDb(), transport, { from: config.mailFrom, publicUrl: config.publicUrl }) }
+    return { result: await sendDueMail(useDb(), transport, { from: config.mailFrom, publicUrl: config.publicUrl, notifyMaxAgeMinutes: Number(config.notify.maxAgeMinutes) }) }
   },
 })

@@ -9,7 +9,7 @@ const FACTS: AlarmMailFacts = {
   alarmId: 42, priority: 'high', alarmClass: 'alarm', siteName: 'Test Works', timeZone: 'Europe/London',
   unitCode: 'U-1', unitName: 'Test unit', tagCode: 'TI-1', tagDescription: 'Test temperature', engineeringUnit: 'K',
   ruleName: 'TI-1 fold in view', measureLabel: 'fold horizon (s)', comparison: 'below', threshold: 1200, value: 900,
-  raisedAt: '2026-07-01T08:00:00.000Z', activatedAt: '2026-07-01T08:00:00.000Z', activationCount: 1, latestValue: 880,
+  raisedAt: '2026-07-01T08:00:00.000Z', activatedAt: '2026-07-01T08:00:00.000Z', activationCount: 1, latestValue: 880, standing: true,
   trend: { tauAr1: 0.81, pAr1: 0.01, tauVariance: 0.4, pVariance: 0.03, evidence: 'slowing down' },
   fold: { kind: 'projected', seconds: 900, lowSeconds: 600, highSeconds: 1500 },
   consequence: 'Runaway.', likelyCause: 'Cooling lost.', operatorAction: 'Open the cooling valve.', link: 'http://x.test/alarms?id=42',
