@@ -1,6 +1,6 @@
 import { createHash, randomBytes } from 'node:crypto'
 import type { TransactionSql } from 'postgres'
-import { and, asc, eq, isNull, sql } from 'drizzle-orm'
+import { and, asc, eq, gt, isNull, or, sql } from 'drizzle-orm'
 import { gateways, sites } from '../db/schema'
 
 export const hashIngestKey = (key: string) => createHash('sha256').update(key).digest('hex')
@@ -10,10 +10,17 @@ export const newIngestKey = () => `bk_${randomBytes(32).toString('base64url')}`
 
 export type Gateway = typeof gateways.$inferSelect
 
-/** The gateway holding this key, unless the key is unknown or revoked. */
+/**
+ * The gateway holding this key, unless the key is unknown or revoked. After a rotation the
+ * replaced key is still accepted until its grace period ends (server/services/gateways/keyRotation.ts).
+ */
 export async function findGatewayByKey(db: Db, key: string): Promise<Gateway | undefined> {
+  const hash = hashIngestKey(key)
   const [row] = await db.select().from(gateways)
-    .where(and(eq(gateways.keyHash, hashIngestKey(key)), isNull(gateways.revokedAt)))
+    .where(and(isNull(gateways.revokedAt), or(
+      eq(gateways.keyHash, hash),
+      and(eq(gateways.previousKeyHash, hash), gt(gateways.previousKeyExpiresAt, sql`now()`)),
+    )))
   return row
 }
 
@@ -38,20 +45,33 @@ export function listGateways(db: Db) {
     createdAt: gateways.createdAt, revokedAt: gateways.revokedAt, lastContactAt: gateways.lastContactAt,
     acceptedCount: gateways.acceptedCount, duplicateCount: gateways.duplicateCount, rejectedCount: gateways.rejectedCount,
     failedBatchCount: gateways.failedBatchCount, lastError: gateways.lastError,
+    previousKeyPrefix: gateways.previousKeyPrefix, previousKeyExpiresAt: gateways.previousKeyExpiresAt, keyRotatedAt: gateways.keyRotatedAt,
   }).from(gateways).innerJoin(sites, eq(sites.id, gateways.siteId)).orderBy(asc(gateways.name))
 }
 
 /** Counts a refused batch against the gateway so admins can see a misconfigured source. */
 export async function recordFailedBatch(db: Db, gatewayId: number, message: string) {
-  await db.update(gateways).set({
-    lastContactAt: new Date(), failedBatchCount: sql`${gateways.failedBatchCount} + 1`, lastError: message.slice(0, 500),
-  }).where(eq(gateways.id, gatewayId))
+  await db.$sql.begin(async (tx) => {
+    await tx`
+      update gateways set last_contact_at = now(), failed_batch_count = failed_batch_count + 1, last_error = ${message.slice(0, 500)}
+      where id = ${gatewayId}`
+    await tx`
+      insert into gateway_hourly (gateway_id, hour, failed_batch_count) values (${gatewayId}, date_trunc('hour', now()), 1)
+      on conflict (gateway_id, hour) do update set failed_batch_count = gateway_hourly.failed_batch_count + 1`
+  })
 }
 
-/** Adds one stored batch to the gateway's counters, inside the batch's own transaction. */
+/** Adds one stored batch to the gateway's counters (totals and this hour's), inside the batch's own transaction. */
 export async function countGatewayBatch(tx: TransactionSql, gatewayId: number, counts: { accepted: number, duplicates: number, rejected: number }) {
   await tx`
     update gateways set last_contact_at = now(), accepted_count = accepted_count + ${counts.accepted},
       duplicate_count = duplicate_count + ${counts.duplicates}, rejected_count = rejected_count + ${counts.rejected}
     where id = ${gatewayId}`
+  await tx`
+    insert into gateway_hourly (gateway_id, hour, accepted_count, duplicate_count, rejected_count)
+    values (${gatewayId}, date_trunc('hour', now()), ${counts.accepted}, ${counts.duplicates}, ${counts.rejected})
+    on conflict (gateway_id, hour) do update set
+      accepted_count = gateway_hourly.accepted_count + excluded.accepted_count,
+      duplicate_count = gateway_hourly.duplicate_count + excluded.duplicate_count,
+      rejected_count = gateway_hourly.rejected_count + excluded.rejected_count`
 }

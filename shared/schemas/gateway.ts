@@ -8,3 +8,15 @@ export const gatewayCreateSchema = z.object({
 export const idParamsSchema = z.object({
   id: z.coerce.number({ invalid_type_error: 'must be a number' }).int().positive('must be a positive id'),
 })
+
+/**
+ * How long the replaced key keeps working after a rotation. [common practice] A day by default,
+ * enough to reconfigure a remote box on the next shift; 0 stops the old key at once; a week at most.
+ */
+export const GATEWAY_GRACE_DEFAULT_MINUTES = 24 * 60
+export const GATEWAY_GRACE_MAX_MINUTES = 7 * 24 * 60
+export const gatewayRotateSchema = z.object({
+  graceMinutes: z.number({ invalid_type_error: 'must be a number of minutes' }).int('must be whole minutes')
+    .min(0, 'must be 0 or more').max(GATEWAY_GRACE_MAX_MINUTES, `must be at most ${GATEWAY_GRACE_MAX_MINUTES} (7 days)`)
+    .default(GATEWAY_GRACE_DEFAULT_MINUTES),
+}).strict()

@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
         throw createError({ statusCode: 400, message: `siteId: site ${input.siteId} does not exist` })
       throw err
     })
-    await writeAudit(tx, { userId: user.id, action: 'gateway.create', target: input.name, detail: { id: result.gateway.id, siteId: input.siteId }, address: clientAddress(event) })
+    await writeAudit(tx, { userId: user.id, action: 'gateway.create', target: input.name, detail: { id: result.gateway.id, before: null, after: { name: input.name, siteId: input.siteId, keyPrefix: result.gateway.keyPrefix } }, address: clientAddress(event) })
     return result
   })
   setResponseStatus(event, 201)
