@@ -6,6 +6,9 @@ import { workerChunkPlugin } from './server/workers/workerChunkPlugin'
 // itself, so the compiled hook copies them into .output/.
 const migrationsDir = fileURLToPath(new URL('./drizzle', import.meta.url))
 const evaluationWorker = fileURLToPath(new URL('./server/workers/evaluateRecordWorker.ts', import.meta.url))
+// Domain services (server/services/<domain>/) are auto-imported by routes and tasks, like the
+// framework glue in server/utils; inside services every import is explicit (docs/architecture.md §A2).
+const servicesDir = fileURLToPath(new URL('./server/services', import.meta.url))
 
 export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
@@ -38,6 +41,7 @@ export default defineNuxtConfig({
   nitro: {
     preset: 'node-server',
     experimental: { tasks: true },
+    imports: { dirs: [`${servicesDir}/**/*`] },
     // Six-field cron (seconds first); fixed at build time, switched off at run time via runtimeConfig.
     scheduledTasks: {
       [process.env.NUXT_PIPELINE_CRON || '*/10 * * * * *']: ['indicators:refresh'],

@@ -29,3 +29,5 @@ export function useDb(): Db {
 
 /** The database or a transaction on it: query helpers that may run inside one take this. */
 export type DbExecutor = Pick<Db, 'select' | 'insert' | 'update' | 'delete'>
+/** The handle a `db.transaction(async tx => …)` callback receives. */
+export type DbTransaction = Parameters<Parameters<Db['transaction']>[0]>[0]

@@ -1,4 +1,4 @@
-// Entry of the evaluation worker threads (server/utils/evaluationPool.ts). The build bundles it
+// Entry of the evaluation worker threads (server/services/pipeline/evaluationPool.ts). The build bundles it
 // into a file of its own (workerChunkPlugin.ts), since a worker thread loads its code from disk.
 // Relative imports only: esbuild there and tsx in the tests resolve no '#shared' alias.
 import { evaluateRecord, type RecordInput } from '../../shared/pipeline/evaluateRecord'

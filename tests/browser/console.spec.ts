@@ -45,7 +45,7 @@ beforeAll(async () => {
   await ingestOu(key, { code: 'AI-102', periodS: 30, samples: 120, endMs: NOW - 60_000, mean: 0.6, k: 0.01, sigma: 0.003, seed: 22 })
   cookie = await signInAs('operator')
   for (const t of (await call('/api/tags', { cookie })).body) ids[t.code] = { id: t.id, unitId: t.unitId }
-  // Demo rules (server/utils/demoAlarmRules.ts): TI-101 above 400 K and EI-301 below 0.75 pu,
+  // Demo rules (server/services/demo/demoAlarmRules.ts): TI-101 above 400 K and EI-301 below 0.75 pu,
   // both urgent with a 10 s on-delay. Forty seconds past each limit, then one pipeline tick.
   const start = Date.now() - 40_000
   const samples = Array.from({ length: 40 }, (_, i) => [

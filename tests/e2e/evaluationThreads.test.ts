@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { boxMuller, mulberry32 } from '../../simulators/lib/random'
-import { evaluationThreadCount } from '../../server/utils/evaluationThreads'
+import { evaluationThreadCount } from '../../server/services/pipeline/evaluationThreads'
 import { testSql } from '../support/db'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
 import { createTestTag, ingestAll, runServerTask, waitForDemoSite } from '../support/pipeline'

@@ -36,7 +36,7 @@ describe('GET /api/overview', () => {
     expect(tile.engineeringUnit).toBe('MW')
     expect(tile.spark).toHaveLength(32)
     const lastThree = fresh.slice(-3).map(s => s.value)
-    // Sent with four significant digits (server/utils/overviewSparklines.ts).
+    // Sent with four significant digits (server/services/reads/overviewSparklines.ts).
     expect(tile.spark.at(-1)).toBeCloseTo(lastThree.reduce((a, b) => a + b, 0) / 3, 1)
     expect(tile.status).not.toBe('no data')
   })

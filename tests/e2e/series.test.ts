@@ -41,7 +41,7 @@ describe('GET /api/tags/:id/series', () => {
     expect(mean).toBeLessThan(0.86)
     expect(s.latest.value).toBeGreaterThan(340)
     expect(s.fold.kind).toBe('none')
-    // The demo's high limit on TI-101 (server/utils/demoAlarmRules.ts) is drawn on the value chart.
+    // The demo's high limit on TI-101 (server/services/demo/demoAlarmRules.ts) is drawn on the value chart.
     expect(s.thresholds).toContainEqual(expect.objectContaining({ measure: 'value', comparison: 'above', threshold: 400, priority: 'urgent' }))
   })
 

@@ -1,10 +1,10 @@
-// The evaluation pool of the built server (server/utils/evaluationPool.ts with the worker file the
+// The evaluation pool of the built server (server/services/pipeline/evaluationPool.ts with the worker file the
 // build made) over in-memory records, no database: the ceiling the tick's evaluations approach.
 import { join } from 'node:path'
 import type { RecordInput } from '../../../shared/pipeline/evaluateRecord'
 import { defaultIndicatorSettings } from '../../../shared/pipeline/indicatorDefaults'
-import { inlineEvaluationPool, threadedEvaluationPool, type EvaluationPool } from '../../../server/utils/evaluationPool'
-import { evaluationThreadCount } from '../../../server/utils/evaluationThreads'
+import { inlineEvaluationPool, threadedEvaluationPool, type EvaluationPool } from '../../../server/services/pipeline/evaluationPool'
+import { evaluationThreadCount } from '../../../server/services/pipeline/evaluationThreads'
 import { ROOT } from './stack'
 
 export interface EngineRate {

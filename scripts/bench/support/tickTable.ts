@@ -1,6 +1,6 @@
 // Prints pipeline tick reports (POST /api/public/test/run-task → indicators:refresh) side by side.
 
-/** The fields of server/utils/indicatorPipeline.ts TickReport the bench reads. */
+/** The fields of server/services/pipeline/pipelineTick.ts TickReport the bench reads. */
 export interface TickReport {
   tags: number
   samples: number

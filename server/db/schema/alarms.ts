@@ -107,6 +107,9 @@ export const alarms = pgTable('alarms', {
   check('alarms_state', oneOf(t.state, ALARM_STATES)),
 ])
 
+export type AlarmRuleRow = typeof alarmRules.$inferSelect
+export type AlarmRow = typeof alarms.$inferSelect
+
 // Append-only: every lifecycle transition with who, when and why (a trigger refuses changes).
 export const alarmEvents = pgTable('alarm_events', {
   id: bigserial('id', { mode: 'number' }).primaryKey(),

@@ -41,7 +41,7 @@ export const OUTBOX_KINDS = ['alarm', 'digest', 'history_summary', 'test', 'acco
 export type OutboxKind = typeof OUTBOX_KINDS[number]
 
 // Mail to send, written in the same transaction as the alarm change that causes it. The sender
-// claims rows FOR UPDATE SKIP LOCKED; delivery is at least once (see server/utils/mailSender.ts).
+// claims rows FOR UPDATE SKIP LOCKED; delivery is at least once (see server/services/mail/mailSender.ts).
 export const notificationOutbox = pgTable('notification_outbox', {
   id: bigserial('id', { mode: 'number' }).primaryKey(),
   kind: text('kind').$type<OutboxKind>().notNull(),

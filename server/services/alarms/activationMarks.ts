@@ -1,3 +1,4 @@
+import type { Db } from '../../utils/db'
 // Chart markers for alarms: one per activation of an occurrence, so a re-raised alarm shows
 // where it came back, not only where it first began (issue 12 item 1). Read by the tag and unit
 // chart routes; the supervisor's incident timeline reads the same activation events.

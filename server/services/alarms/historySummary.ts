@@ -5,9 +5,10 @@ import { eq, sql } from 'drizzle-orm'
 import { HISTORY_SUMMARY_COLLECT_SECONDS } from '#shared/alarms/historyNotice'
 import { renderHistorySummaryMail } from '#shared/notifications/historySummaryMail'
 import { notificationOutbox, sites } from '../../db/schema'
-import { loadAlarmMailFacts } from '../../utils/alarmMailFacts'
-import { recipientsFor } from '../../utils/alarmNotifications'
-import type { AlarmRow, DbTransaction } from '../../utils/alarmTransitions'
+import type { AlarmRow } from '../../db/schema'
+import type { DbTransaction } from '../../utils/db'
+import { loadAlarmMailFacts } from '../mail/alarmMailFacts'
+import { recipientsFor } from '../mail/alarmNotifications'
 
 /** Adds one activation from old history to the site's open summary (nobody routed: nothing to do). */
 export async function addToHistorySummary(tx: DbTransaction, alarm: AlarmRow): Promise<void> {

@@ -1,7 +1,7 @@
 import { and, eq, isNull } from 'drizzle-orm'
 import { gateways } from '../../db/schema'
 import type { DbExecutor } from '../../utils/db'
-import { hashIngestKey, newIngestKey } from '../../utils/gateways'
+import { hashIngestKey, newIngestKey } from '../ingest/gateways'
 
 /**
  * Gives the gateway a new key. The replaced key keeps working for `graceMinutes` so the new one

@@ -1,7 +1,7 @@
 import type { TransactionSql } from 'postgres'
 import { validateSamples, type RejectedSample } from '#shared/utils/sampleBatch'
 import type { Db } from '../../utils/db'
-import { insertSamples, tagIdsByCode } from '../../utils/ingest'
+import { insertSamples, tagIdsByCode } from './ingest'
 
 export interface IngestCounts { accepted: number, duplicates: number, rejected: number }
 

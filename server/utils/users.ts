@@ -1,6 +1,0 @@
-import { desc } from 'drizzle-orm'
-import { auditLog } from '../db/schema'
-
-export function listAudit(db: Db, limit: number) {
-  return db.select().from(auditLog).orderBy(desc(auditLog.id)).limit(limit)
-}
