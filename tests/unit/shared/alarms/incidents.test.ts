@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { earlyWarningSummary, groupIntoIncidents, incidentOpenUntil, joinsIncident, splitMembers, type IncidentMember } from '../../../shared/alarms/incidents'
-import { earlyWarningRecord, median } from '../../../shared/alarms/earlyWarningRecord'
+import { earlyWarningSummary, groupIntoIncidents, incidentOpenUntil, joinsIncident, splitMembers, type IncidentMember } from '../../../../shared/alarms/incidents'
+import { earlyWarningRecord, median } from '../../../../shared/alarms/earlyWarningRecord'
 
 // Grouping rule (docs/design.md, incidents): an alarm joins the incident on its unit while one of
 // the incident's alarms stands or within the window after the last one ended. Expected groups are

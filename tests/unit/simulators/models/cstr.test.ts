@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest'
-import { eigenvalues2x2, numericalJacobian } from '../../../simulators/lib/numerics'
+import { eigenvalues2x2, numericalJacobian } from '../../../../simulators/lib/numerics'
 import {
   URP_BENCHMARK, cstrDerivative, cstrEquilibria, cstrExtinctionDa, cstrIgnitionFold, cstrSlowestRate,
-} from '../../../simulators/models/cstr'
+} from '../../../../simulators/models/cstr'
 
 const at = (change: Partial<typeof URP_BENCHMARK>) => ({ ...URP_BENCHMARK, ...change })
 

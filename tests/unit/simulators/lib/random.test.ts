@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { boxMuller, deriveSeed, mulberry32, seededNormal } from '../../../simulators/lib/random'
+import { boxMuller, deriveSeed, mulberry32, seededNormal } from '../../../../simulators/lib/random'
 
 describe('seeded randomness', () => {
   it('replays exactly from the same seed and differs between seeds', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { INACTIVE, maxActivationsWithin, stepCondition, type ConditionSettings, type ConditionState } from '../../../shared/alarms/conditionTracker'
-import { createRng } from '../../../shared/analysis/random'
+import { INACTIVE, maxActivationsWithin, stepCondition, type ConditionSettings, type ConditionState } from '../../../../shared/alarms/conditionTracker'
+import { createRng } from '../../../../shared/analysis/random'
 
 /** Activation times (s) of a rule run over a series. */
 function activations(settings: ConditionSettings, times: number[], values: number[]): number[] {

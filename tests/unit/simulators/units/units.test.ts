@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest'
-import { CATALOGUE, catalogueUnit } from '../../../simulators/catalogue'
-import { seededNormal } from '../../../simulators/lib/random'
-import { quantise, readSensor } from '../../../simulators/lib/sensor'
-import { UnitSampler } from '../../../simulators/lib/unitSampler'
-import { createUnit } from '../../../simulators/units/createUnit'
+import { CATALOGUE, catalogueUnit } from '../../../../simulators/catalogue'
+import { seededNormal } from '../../../../simulators/lib/random'
+import { quantise, readSensor } from '../../../../simulators/lib/sensor'
+import { UnitSampler } from '../../../../simulators/lib/unitSampler'
+import { createUnit } from '../../../../simulators/units/createUnit'
 
 // Residuals about a least-squares line: the slow drift of the mean is not the fluctuation.
 function detrended(xs: readonly number[]): number[] {

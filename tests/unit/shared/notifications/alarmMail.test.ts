@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { ADVISORY_CAUTION } from '../../../shared/alarms/vocabulary'
-import { renderAlarmMail, renderDigestMail, type AlarmMailFacts } from '../../../shared/notifications/alarmMail'
-import { duration, plantTime } from '../../../shared/notifications/format'
+import { ADVISORY_CAUTION } from '../../../../shared/alarms/vocabulary'
+import { renderAlarmMail, renderDigestMail, type AlarmMailFacts } from '../../../../shared/notifications/alarmMail'
+import { duration, plantTime } from '../../../../shared/notifications/format'
 
 // Invented facts: what is checked is that each required element reaches the text (docs/design.md §D4
 // item 6 lists them; §D1 gives the caution), not any value of the demo plant.

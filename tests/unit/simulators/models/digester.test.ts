@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import {
   digesterDerivative, digesterFoldDilution, digesterFoldDilutionClosedForm, digesterSlowestRate,
   digesterWorkingPoint, vfaWhereGrowthMatchesDilution,
-} from '../../../simulators/models/digester'
+} from '../../../../simulators/models/digester'
 
 const S2eff = 100
 

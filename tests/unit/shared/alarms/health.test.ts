@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest'
 import {
   alarmSystemHealth, chatterIndex, mostWithinSpan, setAside, staleAlarms, TEN_MINUTES_MS,
   type HealthAlarm, type HealthEvent, type Period,
-} from '../../../shared/alarms/health'
-import type { AlarmClass, Priority } from '../../../shared/alarms/vocabulary'
+} from '../../../../shared/alarms/health'
+import type { AlarmClass, Priority } from '../../../../shared/alarms/vocabulary'
 
 // Every expected value below follows by counting from the definitions in docs/science.md §S7.4
 // (ISA-18.2-2016 / IEC 62682 / EEMUA 191 as summarised there), not from running the code.

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import {
   TWO_BUS_REFERENCE, loadBusVoltage, loadRestorationRate, pvNose, pvNoseClosedForm, pvUpperVoltage,
   stableAdmittance,
-} from '../../../simulators/models/grid'
+} from '../../../../simulators/models/grid'
 
 const withTan = (tanPhi: number) => ({ ...TWO_BUS_REFERENCE, tanPhi })
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import {
   defaultIndicatorSettings, FALSE_ALERT_BUDGET_PER_TAG_DAY, FALSE_ALERTS_PER_WINDOW_PER_ALPHA, slidingLookAlpha,
-} from '../../../shared/pipeline/indicatorDefaults'
+} from '../../../../shared/pipeline/indicatorDefaults'
 
 // The sliding look's α spends a false-alert budget per tag-day (docs/science.md §S8.2): the
 // expected false alerts per day, α × trend windows per day × alerts per window per α, must come

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest'
-import { integrate } from '../../../simulators/lib/eulerMaruyama'
-import { seededNormal } from '../../../simulators/lib/random'
-import { steadyLoopDerivative, steadyLoopVariance } from '../../../simulators/models/steady'
-import { FEED_TANK_LEVEL, FEED_TANK_TEMPERATURE, createSteadyUnit } from '../../../simulators/units/steadyUnit'
+import { integrate } from '../../../../simulators/lib/eulerMaruyama'
+import { seededNormal } from '../../../../simulators/lib/random'
+import { steadyLoopDerivative, steadyLoopVariance } from '../../../../simulators/models/steady'
+import { FEED_TANK_LEVEL, FEED_TANK_TEMPERATURE, createSteadyUnit } from '../../../../simulators/units/steadyUnit'
 
 function lagOneAutocorrelation(xs: readonly number[]): number {
   const mean = xs.reduce((a, b) => a + b, 0) / xs.length

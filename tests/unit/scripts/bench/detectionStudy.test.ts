@@ -3,11 +3,11 @@ import { describe, expect, it } from 'vitest'
 import { trendTau } from '#shared/analysis/kendall'
 import { createRng } from '#shared/analysis/random'
 import { forEachCountWindow } from '#shared/analysis/windowTracks'
-import { BENCH_MODELS, eigenvalue } from '../../../scripts/bench/detectionStudy/models'
-import { argMax, bisect } from '../../../scripts/bench/detectionStudy/numerics'
-import { rollingAr1AndVariance } from '../../../scripts/bench/detectionStudy/rollingIndicators'
-import { median, quantile, rocAuc, wilson } from '../../../scripts/bench/detectionStudy/stats'
-import { trendTauFast } from '../../../scripts/bench/detectionStudy/trendTau'
+import { BENCH_MODELS, eigenvalue } from '../../../../scripts/bench/detectionStudy/models'
+import { argMax, bisect } from '../../../../scripts/bench/detectionStudy/numerics'
+import { rollingAr1AndVariance } from '../../../../scripts/bench/detectionStudy/rollingIndicators'
+import { median, quantile, rocAuc, wilson } from '../../../../scripts/bench/detectionStudy/stats'
+import { trendTauFast } from '../../../../scripts/bench/detectionStudy/trendTau'
 
 describe('Wilson score interval', () => {
   // Newcombe 1998 (Stat Med 17:857–872), Table II, method 3 (score, no continuity correction)

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest'
-import { ADVISORY_CAUTION } from '../../../shared/alarms/vocabulary'
-import { isFromOldHistory } from '../../../shared/alarms/historyNotice'
-import type { AlarmMailFacts } from '../../../shared/notifications/alarmMail'
-import { historyNoticeComment, renderHistorySummaryMail } from '../../../shared/notifications/historySummaryMail'
+import { ADVISORY_CAUTION } from '../../../../shared/alarms/vocabulary'
+import { isFromOldHistory } from '../../../../shared/alarms/historyNotice'
+import type { AlarmMailFacts } from '../../../../shared/notifications/alarmMail'
+import { historyNoticeComment, renderHistorySummaryMail } from '../../../../shared/notifications/historySummaryMail'
 
 // Invented facts: what is checked is the product rule of docs/design.md §D4 item 5 (one summary,
 // standing alarms first, each alarm once, the caution of §D1), not any demo value.
