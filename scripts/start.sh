@@ -47,8 +47,8 @@ export BRINKLINE_SEED_DEMO=1
 
 ensure_build
 
-if [ -f simulators/localMailbox.ts ]; then
-  MAIL_DIR="$BRINKLINE_STATE_DIR/mail" node --import tsx simulators/localMailbox.ts > "$BRINKLINE_STATE_DIR/mail-catcher.log" 2>&1 &
+if [ -f scripts/mailbox/localMailbox.ts ]; then
+  MAIL_DIR="$BRINKLINE_STATE_DIR/mail" node --import tsx scripts/mailbox/localMailbox.ts > "$BRINKLINE_STATE_DIR/mail-catcher.log" 2>&1 &
   PIDS+=($!)
 fi
 

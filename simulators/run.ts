@@ -1,6 +1,6 @@
 // Demo plant runner: simulates the units of the catalogue and posts their samples to Brinkline's
 // ingest API as a gateway would. See lib/runOptions.ts for the options.
-import { CATALOGUE, catalogueUnit, type UnitCode } from './catalogue'
+import { CATALOGUE, catalogueUnit, type UnitCode } from '../shared/demo/catalogue'
 import { IngestClient } from './lib/ingestClient'
 import { deriveSeed, seededNormal } from './lib/random'
 import { parseRunOptions, USAGE, type RunOptions } from './lib/runOptions'

@@ -16,8 +16,8 @@ import {
   type EvaluationDelays, type IndicatorSettings,
 } from '../../shared/pipeline/indicatorDefaults'
 import { ruleActivations } from '../../shared/pipeline/ruleReplay'
-import { CATALOGUE, type UnitCode } from '../../simulators/catalogue'
-import { boxMuller, mulberry32 } from '../../simulators/lib/random'
+import { CATALOGUE, type UnitCode } from '../../shared/demo/catalogue'
+import { seededNormal } from '../../simulators/lib/random'
 import { UnitSampler } from '../../simulators/lib/unitSampler'
 import { createUnit } from '../../simulators/units/createUnit'
 
@@ -63,8 +63,8 @@ export function liveRun(series: SampledSeries, samplePeriodS: number, tagId: num
 export function demoUnitRecord(code: UnitCode, seed: number, untilS: number, periodS?: number): { tags: Map<string, SampledSeries>, tipS: number | null, foldS: number | null } {
   const base = CATALOGUE.find(u => u.code === code)!
   const catalogue = { ...base, tags: base.tags.map(t => ({ ...t, samplePeriodSeconds: periodS ?? t.samplePeriodSeconds })) }
-  const unit = createUnit(code, { speed: 1, normal: boxMuller(mulberry32(seed)) })
-  const sampler = new UnitSampler(unit, catalogue, boxMuller(mulberry32(seed + 100)), 0)
+  const unit = createUnit(code, { speed: 1, normal: seededNormal(seed) })
+  const sampler = new UnitSampler(unit, catalogue, seededNormal(seed + 100), 0)
   const raw = new Map(catalogue.tags.map(t => [t.code, { t: [] as number[], v: [] as number[] }]))
   let tipS: number | null = null
   const stepMs = 60_000

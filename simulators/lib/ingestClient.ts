@@ -3,7 +3,7 @@
 // loses nothing (ingest is idempotent on (tag, time), so resending after an unclear failure is
 // safe). Only when the buffer bound is hit are the oldest samples dropped, and counted.
 import type { Quality } from './sensor'
-import { backoffDelay, parseRetryAfter, type BackoffSettings } from './retryDelay'
+import { backoffDelay, parseRetryAfter, type BackoffSettings } from '../../shared/utils/retryDelay'
 
 export interface IngestSample {
   tag: string

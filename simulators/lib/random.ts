@@ -1,25 +1,14 @@
 // Seeded randomness for the simulators: the same seed gives the same plant history, so a demo
 // or a test can be replayed exactly. Not for anything that needs cryptographic quality.
+// The uniform stream is the engine's own seeded generator (shared/analysis/random.ts); only the
+// normal transform is the simulators' own: Box–Muller, kept so a seed replays the same plant
+// history it always has (the engine's polar method would draw a different one).
+import { createRng } from '../../shared/analysis/random'
 
 /** Uniform generator on [0, 1). */
 export type Uniform = () => number
 /** Standard normal generator, N(0, 1). */
 export type Normal = () => number
-
-/**
- * mulberry32 (Tommy Ettinger, public domain, 2017) [from memory]: a 32-bit state generator,
- * tiny and fast, with a period of 2^32 — plenty for one simulated unit's noise stream.
- */
-export function mulberry32(seed: number): Uniform {
-  let state = seed >>> 0
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0
-    let t = state
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
 
 /**
  * Box–Muller transform (Box & Muller 1958) [from memory]: two uniforms give two independent
@@ -41,9 +30,14 @@ export function boxMuller(uniform: Uniform): Normal {
   }
 }
 
+/** The engine's seeded uniform stream on [0, 1). */
+export function seededUniform(seed: number): Uniform {
+  return createRng(seed).uniform
+}
+
 /** A normal generator from a seed: what every simulated unit uses. */
 export function seededNormal(seed: number): Normal {
-  return boxMuller(mulberry32(seed))
+  return boxMuller(seededUniform(seed))
 }
 
 /**

@@ -1,6 +1,6 @@
 // Command-line and environment options of simulators/run.ts.
 import { parseArgs } from 'node:util'
-import { CATALOGUE, type UnitCode } from '../catalogue'
+import { CATALOGUE, type UnitCode } from '../../shared/demo/catalogue'
 
 export interface RunOptions {
   units: UnitCode[]

@@ -1,4 +1,4 @@
-import type { CatalogueTag } from '../catalogue'
+import type { CatalogueTag } from '../../shared/demo/catalogue'
 import type { Normal } from './random'
 
 export type Quality = 'good' | 'uncertain' | 'bad'

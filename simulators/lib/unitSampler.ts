@@ -1,7 +1,7 @@
 // Turns a simulated unit into timestamped samples: ticks the plant in wall-clock steps and reads
 // each tag through its sensor whenever its sample period comes round. Timestamps sit on whole
 // multiples of the period, so a resent sample has exactly the same (tag, time) key.
-import type { CatalogueUnit } from '../catalogue'
+import type { CatalogueUnit } from '../../shared/demo/catalogue'
 import type { SimulatedUnit } from '../units/simulatedUnit'
 import type { IngestSample } from './ingestClient'
 import type { Normal } from './random'

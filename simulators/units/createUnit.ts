@@ -1,4 +1,4 @@
-import type { UnitCode } from '../catalogue'
+import type { UnitCode } from '../../shared/demo/catalogue'
 import { createCstrUnit } from './cstrUnit'
 import { createDigesterUnit } from './digesterUnit'
 import { createGridUnit } from './gridUnit'

@@ -1,4 +1,4 @@
-import type { UnitCode } from '../catalogue'
+import type { UnitCode } from '../../shared/demo/catalogue'
 import { DriftCycle, type DriftCycleSettings, type DriftPhase } from '../lib/driftCycle'
 import { integrate, type Derivative } from '../lib/eulerMaruyama'
 import type { Normal } from '../lib/random'

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { CATALOGUE, type CatalogueUnit } from '../../simulators/catalogue'
-import { boxMuller, mulberry32 } from '../../simulators/lib/random'
+import { CATALOGUE, type CatalogueUnit } from '../../shared/demo/catalogue'
+import { seededNormal } from '../../simulators/lib/random'
 import { UnitSampler } from '../../simulators/lib/unitSampler'
 import { createUnit } from '../../simulators/units/createUnit'
 import { DEMO_RULES, demoRuleColumns } from '../../server/services/demo/demoAlarmRules'
@@ -36,8 +36,8 @@ async function tagWithDemoRules(code: string, unitCode: string, samplePeriodS: n
 function simulate(unitCode: CatalogueUnit['code'], rename: Record<string, string>, samplePeriodS: number | null, seed: number) {
   const base = CATALOGUE.find(u => u.code === unitCode)!
   const catalogue = { ...base, tags: base.tags.map(t => ({ ...t, samplePeriodSeconds: samplePeriodS ?? t.samplePeriodSeconds })) }
-  const unit = createUnit(unitCode, { speed: 1, normal: boxMuller(mulberry32(seed)) })
-  return { unit, sampler: new UnitSampler(unit, catalogue, boxMuller(mulberry32(seed + 100)), 0), rename }
+  const unit = createUnit(unitCode, { speed: 1, normal: seededNormal(seed) })
+  return { unit, sampler: new UnitSampler(unit, catalogue, seededNormal(seed + 100), 0), rename }
 }
 
 // Fixed sample times: the live path seeds its surrogates from (tag, evaluation time), so fixed

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { boxMuller, mulberry32 } from '../../simulators/lib/random'
+import { seededNormal } from '../../simulators/lib/random'
 import { evaluationThreadCount } from '../../server/services/pipeline/evaluationThreads'
 import { testSql } from '../support/db'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
@@ -16,7 +16,7 @@ beforeAll(() => waitForDemoSite(sql))
 describe('tag evaluations in the built server', () => {
   it('run on the worker threads BRINKLINE_EVAL_THREADS asks for (one per core by default)', async () => {
     const id = await createTestTag(sql, 'TI-981', 'T-400', 1)
-    const normal = boxMuller(mulberry32(981))
+    const normal = seededNormal(981)
     let x = 0
     const start = Date.UTC(2026, 0, 5)
     const samples = Array.from({ length: 1500 }, (_, i) => {

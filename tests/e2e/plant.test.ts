@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { CATALOGUE } from '../../simulators/catalogue'
+import { CATALOGUE } from '../../shared/demo/catalogue'
 import { setupBuiltServer } from '../support/server'
 import { call, signInAs } from '../support/session'
 

@@ -1,7 +1,7 @@
 import { mkdtempSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import { startLocalMailbox } from '../../simulators/localMailbox'
+import { startLocalMailbox } from '../../scripts/mailbox/localMailbox'
 
 /** The local SMTP mailbox on free ports, and the env that points the server at it. */
 export async function startTestMailbox() {

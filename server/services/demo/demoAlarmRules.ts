@@ -1,5 +1,5 @@
 // Demo alarm rules and the on-call route for the invented demo site. Thresholds sit on each
-// simulated plant's own scale (simulators/catalogue.ts); the rationale texts are written for the
+// simulated plant's own scale (shared/demo/catalogue.ts); the rationale texts are written for the
 // demo, like the plant itself.
 import { and, eq, inArray } from 'drizzle-orm'
 import { defaultIndicatorSettings, EARLY_WARNING_DELAYS, evaluationIntervalS, FOLD_IN_VIEW_DELAYS } from '#shared/pipeline/indicatorDefaults'

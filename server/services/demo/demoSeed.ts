@@ -1,5 +1,5 @@
 import { and, eq } from 'drizzle-orm'
-import { CATALOGUE, DEMO_COMPANY, DEMO_SITE } from '../../../simulators/catalogue'
+import { CATALOGUE, DEMO_COMPANY, DEMO_SITE } from '#shared/demo/catalogue'
 import { gateways, sites, tags, units, users } from '../../db/schema'
 import type { Role } from '#shared/utils/roles'
 import type { Db } from '../../utils/db'

@@ -1,6 +1,6 @@
 import { and, asc, eq, lte, sql } from 'drizzle-orm'
 import { renderDigestMail } from '#shared/notifications/alarmMail'
-import { backoffDelay } from '../../../simulators/lib/retryDelay'
+import { backoffDelay } from '#shared/utils/retryDelay'
 import { DEFAULT_NOTIFY_MAX_AGE_MINUTES } from '#shared/alarms/historyNotice'
 import { notificationOutbox, outboxAttempts, sites } from '../../db/schema'
 import type { Db, DbTransaction } from '../../utils/db'

@@ -2,7 +2,7 @@ import { createServer, type Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { afterEach, describe, expect, it } from 'vitest'
 import { IngestClient, type IngestSample } from '../../../../simulators/lib/ingestClient'
-import { backoffDelay, parseRetryAfter } from '../../../../simulators/lib/retryDelay'
+import { backoffDelay, parseRetryAfter } from '../../../../shared/utils/retryDelay'
 
 type Reply = { status: number; headers?: Record<string, string>; body?: unknown }
 

@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest'
-import { boxMuller, deriveSeed, mulberry32, seededNormal } from '../../../../simulators/lib/random'
+import { boxMuller, deriveSeed, seededNormal, seededUniform } from '../../../../simulators/lib/random'
 
 describe('seeded randomness', () => {
   it('replays exactly from the same seed and differs between seeds', () => {
-    const a = mulberry32(42)
-    const b = mulberry32(42)
-    const c = mulberry32(43)
+    const a = seededUniform(42)
+    const b = seededUniform(42)
+    const c = seededUniform(43)
     const fromA = Array.from({ length: 5 }, a)
     expect(Array.from({ length: 5 }, b)).toEqual(fromA)
     expect(Array.from({ length: 5 }, c)).not.toEqual(fromA)
@@ -13,7 +13,7 @@ describe('seeded randomness', () => {
   })
 
   it('uniforms lie in [0, 1) with mean 1/2 and variance 1/12', () => {
-    const uniform = mulberry32(1)
+    const uniform = seededUniform(1)
     const xs = Array.from({ length: 200_000 }, uniform)
     expect(xs.reduce((a, b) => Math.min(a, b))).toBeGreaterThanOrEqual(0)
     expect(xs.reduce((a, b) => Math.max(a, b))).toBeLessThan(1)
@@ -24,7 +24,7 @@ describe('seeded randomness', () => {
   })
 
   it('Box–Muller normals have mean 0, variance 1 and the normal tail mass', () => {
-    const normal = boxMuller(mulberry32(9))
+    const normal = boxMuller(seededUniform(9))
     const xs = Array.from({ length: 200_000 }, normal)
     const mean = xs.reduce((a, b) => a + b, 0) / xs.length
     const varc = xs.reduce((a, x) => a + (x - mean) ** 2, 0) / xs.length

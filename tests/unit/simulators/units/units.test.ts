@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { CATALOGUE, catalogueUnit } from '../../../../simulators/catalogue'
+import { CATALOGUE, catalogueUnit } from '../../../../shared/demo/catalogue'
 import { seededNormal } from '../../../../simulators/lib/random'
 import { quantise, readSensor } from '../../../../simulators/lib/sensor'
 import { UnitSampler } from '../../../../simulators/lib/unitSampler'

@@ -1,14 +1,14 @@
-// Local local mailbox for the demo and tests: an SMTP server on loopback that accepts every
+// The local development mailbox for the demo and tests: an SMTP server on loopback that accepts every
 // message (no auth, no TLS), stores it, and shows it over HTTP.
-//   npx tsx simulators/localMailbox.ts   (MAIL_SMTP_PORT=1025, MAIL_HTTP_PORT=1080, MAIL_DIR=.data/mail)
+//   npx tsx scripts/mailbox/localMailbox.ts   (MAIL_SMTP_PORT=1025, MAIL_HTTP_PORT=1080, MAIL_DIR=.data/mail)
 import { randomUUID } from 'node:crypto'
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { pathToFileURL } from 'node:url'
 import { simpleParser, type AddressObject } from 'mailparser'
 import { SMTPServer } from 'smtp-server'
-import { inboxPage, messagePage } from './mail/mailPages'
-import { MailStore } from './mail/mailStore'
+import { inboxPage, messagePage } from './mailPages'
+import { MailStore } from './mailStore'
 
 export interface LocalMailboxOptions {
   host?: string

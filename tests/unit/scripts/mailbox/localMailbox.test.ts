@@ -4,8 +4,8 @@ import { join } from 'node:path'
 import nodemailer from 'nodemailer'
 import type Mail from 'nodemailer/lib/mailer'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { startLocalMailbox, type RunningLocalMailbox } from '../../../simulators/localMailbox'
-import type { CaughtMessage } from '../../../simulators/mail/mailStore'
+import { startLocalMailbox, type RunningLocalMailbox } from '../../../../scripts/mailbox/localMailbox'
+import type { CaughtMessage } from '../../../../scripts/mailbox/mailStore'
 
 let mailbox: RunningLocalMailbox
 let dir: string
