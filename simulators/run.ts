@@ -66,6 +66,7 @@ async function main(): Promise<void> {
   process.once('SIGTERM', () => void stop('SIGTERM'))
 
   const reporter = setInterval(() => console.log(statusLine(client, samplers)), STATUS_MS)
+  // eslint-disable-next-line prefer-const -- stop() reads it during the backfill, before it is set
   let ticker: NodeJS.Timeout | undefined
   if (options.backfillHours > 0) {
     console.log(`backfilling ${options.backfillHours} h of history`)

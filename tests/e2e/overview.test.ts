@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { CATALOGUE } from '../../shared/demo/catalogue'
+import type { OverviewUnit } from '../../shared/types/overview'
 import { setupBuiltServer } from '../support/server'
 import { call, signInAs } from '../support/session'
 import { createTestGateway, ingest } from '../support/gateway'
@@ -19,8 +20,8 @@ beforeAll(async () => {
   cookie = await signInAs('operator')
 })
 
-const tileOf = (body: { units: { tiles: { code: string }[] }[] }, code: string) =>
-  body.units.flatMap(u => u.tiles).find(t => t.code === code) as any
+const tileOf = (body: { units: OverviewUnit[] }, code: string) =>
+  body.units.flatMap(u => u.tiles).find(t => t.code === code)!
 
 describe('GET /api/overview', () => {
   it('groups every watched tag under its unit', async () => {

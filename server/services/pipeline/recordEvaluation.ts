@@ -1,4 +1,5 @@
 // Referenced here, not left to the server tsconfig: the app's type check reaches this file too.
+// eslint-disable-next-line @typescript-eslint/triple-slash-reference -- an ambient module file has no exports to import
 /// <reference path="../../workers/evaluationWorkerModule.d.ts" />
 import { existsSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'

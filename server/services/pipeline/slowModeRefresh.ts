@@ -1,4 +1,4 @@
-import { and, eq, sql } from 'drizzle-orm'
+import { sql } from 'drizzle-orm'
 import { causalLocalLinearTrend } from '#shared/analysis/detrend'
 import { slowMode } from '#shared/analysis/slowMode'
 import { alignOnGrid } from '#shared/pipeline/alignTags'

@@ -3,7 +3,7 @@ import type { PgTable } from 'drizzle-orm/pg-core'
 import type { EvaluationPoint } from '#shared/pipeline/evaluateRecord'
 import { deriveTagStatus, leadingIndicator } from '#shared/pipeline/tagStatus'
 import type { AlarmClass, AlarmState } from '#shared/alarms/vocabulary'
-import { alarmRules, alarms, indicatorPoints, tagStatus, tags } from '../../db/schema'
+import { alarmRules, alarms, indicatorPoints, tagStatus, type tags } from '../../db/schema'
 import { jsonParam } from './tagBatchLoad'
 import type { DbTransaction } from '../../utils/db'
 

@@ -50,7 +50,10 @@ export async function* importCsvRecords(db: Db, input: {
     const newCodes = [...new Set(batch.map(p => p.item.tag))].filter(c => c && !tagIds.has(c) && !unknownTags.has(c))
     if (newCodes.length) {
       const found = await tagIdsByCode(db, siteId, newCodes)
-      for (const code of newCodes) found.has(code) ? tagIds.set(code, found.get(code)!) : unknownTags.add(code)
+      for (const code of newCodes) {
+        if (found.has(code)) tagIds.set(code, found.get(code)!)
+        else unknownTags.add(code)
+      }
     }
     const { valid, rejections } = validatePending(batch, code => tagIds.has(code))
     rejections.forEach(reject)
