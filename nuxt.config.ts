@@ -14,7 +14,7 @@ export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
   devtools: { enabled: false },
   telemetry: false,
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@vueuse/nuxt'],
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@vueuse/nuxt', '@nuxt/eslint'],
   css: ['@fontsource/roboto-mono/400.css', '@fontsource/roboto-mono/700.css', '~/assets/css/main.css'],
   app: {
     head: {
@@ -62,6 +62,8 @@ export default defineNuxtConfig({
       config.errorHandler = [fileURLToPath(new URL('./server/error.ts', import.meta.url)), ...existing]
     },
   },
+  // Lint rules only, no formatting: the code keeps its own layout (docs/style.md).
+  eslint: { config: { stylistic: false } },
   tailwindcss: { cssPath: false, viewer: false },
   typescript: { strict: true },
 })
