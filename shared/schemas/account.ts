@@ -23,6 +23,7 @@ const roleField = z.enum(ROLES, { errorMap: () => ({ message: `must be one of ${
 
 const nameField = z.string({ required_error: 'is required' }).trim()
   .min(2, 'must have at least 2 characters').max(80, 'must have at most 80 characters')
+  // eslint-disable-next-line no-control-regex -- matching control characters is the point of this check
   .refine(s => !/[\u0000-\u001f]/.test(s), 'must not contain control characters')
 
 export const userCreateSchema = z.object({

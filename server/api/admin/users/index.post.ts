@@ -1,6 +1,6 @@
 import { userCreateSchema } from '#shared/schemas/account'
 import { sendPasswordLink } from '../../../services/accounts/passwordLinks'
-import { AccountConflict, createUser } from '../../../services/accounts/users'
+import { createUser } from '../../../services/accounts/users'
 
 // Creates an account without a password and mails its one-time set-password link (outbox).
 export default defineEventHandler(async (event) => {
