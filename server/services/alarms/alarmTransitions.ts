@@ -3,7 +3,7 @@ import { applyLifecycleEvent, type LifecycleEvent } from '#shared/alarms/lifecyc
 import type { AlarmState, RuleMode } from '#shared/alarms/vocabulary'
 import { DEFAULT_NOTIFY_MAX_AGE_MINUTES, isFromOldHistory } from '#shared/alarms/historyNotice'
 import { historyNoticeComment } from '#shared/notifications/historySummaryMail'
-import { alarmEvents, alarmRules, alarms } from '../../db/schema'
+import { alarmEvents, alarms } from '../../db/schema'
 import type { AlarmRow, AlarmRuleRow } from '../../db/schema'
 import type { ChangeContext } from '../../utils/changeContext'
 import type { DbTransaction } from '../../utils/db'
