@@ -22,7 +22,7 @@ beforeAll(async () => {
   for (let i = 0; i < RULES; i++) {
     const res = await call('/api/rules', { method: 'POST', cookie: engineer, json: {
       targetKind: 'tag', tagId, name: `TT-903 limit ${i}`, measure: 'value', comparison: 'above', threshold: 100 + i,
-      priority: 'high', alarmClass: 'alarm', consequence: 'Test overflow.', likelyCause: 'Test inflow.', operatorAction: `Close test valve ${i}.`,
+      priority: 'high', alarmClass: 'alarm', consequence: 'Test overflow.', likelyCause: 'Test inflow.', operatorAction: `Close test valve ${i}.`, timeToRespondS: 600,
     } })
     if (res.status !== 201) throw new Error(`rule create answered ${res.status}`)
   }

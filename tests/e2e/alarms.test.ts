@@ -30,7 +30,7 @@ const feed = (...values: number[]) => ingestAll(values.map(value => ({ tag: TAG,
 const RULE = {
   targetKind: 'tag', tagId: 0, name: 'TT-901 high limit', measure: 'value', comparison: 'above', threshold: 100, deadband: 5,
   onDelayS: 0, offDelayS: 0, priority: 'high', alarmClass: 'alarm',
-  consequence: 'Test vessel over-temperature.', likelyCause: 'Heater stuck on.', operatorAction: 'Switch the test heater to manual and close its valve.',
+  consequence: 'Test vessel over-temperature.', likelyCause: 'Heater stuck on.', operatorAction: 'Switch the test heater to manual and close its valve.', timeToRespondS: 600,
 }
 let ruleId = 0
 const alarmOf = async () => (await call(`/api/alarms?view=history&limit=500`, { cookie: operator })).body.alarms.filter((a: { ruleId: number }) => a.ruleId === ruleId)

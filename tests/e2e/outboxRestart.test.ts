@@ -29,7 +29,7 @@ beforeAll(async () => {
   const res = await call('/api/rules', { method: 'POST', cookie: await signInAs('engineer'), json: {
     targetKind: 'tag', tagId, name: 'TT-902 high limit', measure: 'value', comparison: 'above', threshold: 100,
     priority: 'urgent', alarmClass: 'alarm', consequence: 'Test reactor over-temperature.', likelyCause: 'Cooling lost.',
-    operatorAction: 'Open the test cooling valve fully.',
+    operatorAction: 'Open the test cooling valve fully.', timeToRespondS: 600,
   } })
   if (res.status !== 201) throw new Error(`rule create answered ${res.status}`)
 })

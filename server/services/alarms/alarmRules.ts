@@ -6,8 +6,8 @@ import type { Db, DbTransaction } from '../../utils/db'
 import type { ChangeContext } from '../../utils/changeContext'
 import { lockOpenAlarm, modeEvent, transitionAlarm } from './alarmTransitions'
 
-export function listRules(db: Db, filters: { unitId?: number, tagId?: number }) {
-  const where: SQL[] = [eq(alarmRules.enabled, true)]
+export function listRules(db: Db, filters: { unitId?: number, tagId?: number, disabled?: 'include' | 'exclude' }) {
+  const where: SQL[] = filters.disabled === 'include' ? [] : [eq(alarmRules.enabled, true)]
   if (filters.unitId) where.push(eq(alarmRules.unitId, filters.unitId))
   if (filters.tagId) where.push(eq(alarmRules.tagId, filters.tagId))
   return db.select({ rule: alarmRules, tagCode: tags.code, unitCode: units.code }).from(alarmRules)

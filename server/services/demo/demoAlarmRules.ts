@@ -71,6 +71,9 @@ export const DEMO_RULES: readonly DemoRule[] = [
 export const DEMO_ROUTE = { email: 'oncall@harrowgate.example', minPriority: 'high' as Priority }
 
 /** A demo rule's columns for one tag (delays given in evaluations become seconds for its period). */
+/** The demo's time to respond by priority (invented for the demo plant, like its rationale texts). */
+const DEMO_TIME_TO_RESPOND_S: Record<Priority, number> = { urgent: 300, high: 900, medium: 1800, low: 3600 }
+
 export function demoRuleColumns(r: DemoRule, tag: { id: number, unitId: number, samplePeriodS: number }) {
   const seconds = (delay: DemoRule['onDelay']) =>
     typeof delay === 'number' ? delay : delay.evaluations * evaluationIntervalS(defaultIndicatorSettings(tag.samplePeriodS), tag.samplePeriodS)
@@ -78,6 +81,7 @@ export function demoRuleColumns(r: DemoRule, tag: { id: number, unitId: number, 
     targetKind: 'tag' as const, tagId: tag.id, unitId: tag.unitId, name: r.name, measure: r.measure, comparison: r.comparison,
     threshold: r.threshold, deadband: r.deadband ?? 0, onDelayS: seconds(r.onDelay), offDelayS: seconds(r.offDelay),
     priority: r.priority, alarmClass: r.alarmClass, consequence: r.consequence, likelyCause: r.likelyCause, operatorAction: r.operatorAction,
+    timeToRespondS: DEMO_TIME_TO_RESPOND_S[r.priority],
   }
 }
 

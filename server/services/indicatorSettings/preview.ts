@@ -1,6 +1,7 @@
 import { SERIES_RANGES, type SeriesRange } from '#shared/schemas/series'
 import type { IndicatorSettingsInput } from '#shared/schemas/indicatorSettings'
 import { buildSettingsPreview, previewLeadSeconds } from '#shared/utils/settingsPreview'
+import { loadSamplesSince } from '../reads/tagSeriesRead'
 import { findTagSettings } from './settings'
 
 /** Display buckets of the preview charts: fewer than the tag page, it is computed twice. */

@@ -93,7 +93,7 @@ async function sampleWindows(tx: DbTransaction, end: 'oldest' | 'newest', window
   return new Map(rows.map(r => [Number(r.tag_id), { t: (r.t ?? []).map(Number), v: (r.v ?? []).map(Number) }]))
 }
 
-type StoredPointRow = {
+export type StoredPointRow = {
   tag_id: number, time_s: number, quality: string | null, variance: number | null, std: number | null, cv: number | null,
   ar1: number | null, recovery_rate: number | null, skewness: number | null, kurtosis: number | null, tau_ar1: number | null,
   p_ar1: number | null, tau_variance: number | null, p_variance: number | null, evidence: string | null,
@@ -106,12 +106,17 @@ export async function latestStoredPoints(tx: DbTransaction, tagIds: number[]): P
     select p.*, extract(epoch from p.time)::float8 as time_s
     from jsonb_array_elements_text(${jsonParam(tagIds)}) as c(tag_id)
     cross join lateral (select * from indicator_points where tag_id = c.tag_id::int order by time desc limit 1) p`)
-  return new Map(rows.map(row => [Number(row.tag_id), {
+  return new Map(rows.map(row => [Number(row.tag_id), storedPoint(row)]))
+}
+
+/** A stored indicator_points row (with its time as epoch seconds) in the shape the engine returns. */
+export function storedPoint(row: StoredPointRow): EvaluationPoint {
+  return {
     time: Number(row.time_s), quality: row.quality, variance: row.variance, std: row.std, cv: row.cv, ar1: row.ar1,
     recoveryRate: row.recovery_rate, skewness: row.skewness, kurtosis: row.kurtosis, tauAr1: row.tau_ar1, pAr1: row.p_ar1,
     tauVariance: row.tau_variance, pVariance: row.p_variance, evidence: row.evidence as EvaluationPoint['evidence'],
     fold: row.fold_seconds === null
       ? { kind: 'none' }
       : { kind: 'projected', seconds: row.fold_seconds, lowSeconds: row.fold_low_seconds!, highSeconds: row.fold_high_seconds! },
-  }]))
+  }
 }
