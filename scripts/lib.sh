@@ -48,3 +48,15 @@ wait_for_health() {
 }
 
 random_secret() { head -c 32 /dev/urandom | base64 | tr -dc 'A-Za-z0-9' | head -c "${1:-32}"; }
+
+# Opens a log for this run: the previous runs' lines are kept (the file is appended to, each run
+# starting with a banner), and a file past BRINKLINE_LOG_MAX_BYTES (default 20 MB) moves to .1,
+# .1 to .2 … up to BRINKLINE_LOG_KEEP (default 5) old files, so logs never grow without bound.
+open_run_log() {
+  local log=$1 max=${BRINKLINE_LOG_MAX_BYTES:-20000000} keep=${BRINKLINE_LOG_KEEP:-5}
+  if [ -f "$log" ] && [ "$(stat -c %s "$log")" -gt "$max" ]; then
+    for i in $(seq $((keep - 1)) -1 1); do [ -f "$log.$i" ] && mv -f "$log.$i" "$log.$((i + 1))"; done
+    mv -f "$log" "$log.1"
+  fi
+  echo "===== $(date -u +%Y-%m-%dT%H:%M:%SZ) npm start (pid $$) =====" >> "$log"
+}

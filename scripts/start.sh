@@ -48,17 +48,22 @@ export BRINKLINE_SEED_DEMO=1
 ensure_build
 
 if [ -f scripts/mailbox/localMailbox.ts ]; then
-  MAIL_DIR="$BRINKLINE_STATE_DIR/mail" node --import tsx scripts/mailbox/localMailbox.ts > "$BRINKLINE_STATE_DIR/mail-catcher.log" 2>&1 &
+  open_run_log "$BRINKLINE_STATE_DIR/mail-catcher.log"
+  MAIL_DIR="$BRINKLINE_STATE_DIR/mail" node --import tsx scripts/mailbox/localMailbox.ts >> "$BRINKLINE_STATE_DIR/mail-catcher.log" 2>&1 &
   PIDS+=($!)
 fi
 
-PORT=$PORT HOST=$HOST node .output/server/index.mjs > "$BRINKLINE_STATE_DIR/server.log" 2>&1 &
+open_run_log "$BRINKLINE_STATE_DIR/server.log"
+PORT=$PORT HOST=$HOST node .output/server/index.mjs >> "$BRINKLINE_STATE_DIR/server.log" 2>&1 &
 PIDS+=($!)
 wait_for_health "$URL" 240 || { tail -30 "$BRINKLINE_STATE_DIR/server.log"; echo "server did not become healthy" >&2; exit 1; }
 
 if [ -f simulators/run.ts ]; then
-  node --import tsx simulators/run.ts --unit all --url "$URL" --key "$BRINKLINE_SIM_KEY" --backfill-hours "${SIM_BACKFILL_HOURS:-6}" \
-    > "$BRINKLINE_STATE_DIR/simulators.log" 2>&1 &
+  open_run_log "$BRINKLINE_STATE_DIR/simulators.log"
+  # The key reaches the simulators through the environment (BRINKLINE_SIM_KEY, exported above from
+  # the credentials file), never on the command line, where `ps` would show it to every user.
+  node --import tsx simulators/run.ts --unit all --url "$URL" --backfill-hours "${SIM_BACKFILL_HOURS:-6}" \
+    >> "$BRINKLINE_STATE_DIR/simulators.log" 2>&1 &
   PIDS+=($!)
 fi
 
