@@ -2,11 +2,21 @@
 // neighbour, up/down to the tile in the row above/below nearest in x. Tab still walks the page,
 // Enter opens the focused tile (it is a link). Tiles are found by `data-tile` inside `container`.
 export function useGridArrowKeys(container: Ref<HTMLElement | undefined>) {
-  useEventListener(container, 'keydown', (event: KeyboardEvent) => {
+  // On the whole page, so the keys work before any tile was clicked: with nothing focused, the
+  // first key focuses the first tile. Keys meant for a field or a control are left alone.
+  useEventListener(globalThis.document, 'keydown', (event: KeyboardEvent) => {
     if (!['ArrowLeft', 'ArrowRight', 'ArrowUp', 'ArrowDown', 'Home', 'End'].includes(event.key)) return
-    const tiles = [...container.value!.querySelectorAll<HTMLElement>('[data-tile]')]
+    if (!container.value) return
+    const tiles = [...container.value.querySelectorAll<HTMLElement>('[data-tile]')]
     const current = tiles.indexOf(document.activeElement as HTMLElement)
-    if (current < 0) return
+    if (current < 0) {
+      const idle = !document.activeElement || document.activeElement === document.body
+      if (idle && tiles[0]) {
+        event.preventDefault()
+        tiles[0].focus()
+      }
+      return
+    }
     const target = nextTile(tiles, current, event.key)
     if (target) {
       event.preventDefault()

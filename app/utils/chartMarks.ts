@@ -3,8 +3,8 @@ import type { ChartMarker, ChartThreshold } from '~/components/chart/ChartTimeSe
 type Priority = ChartThreshold['priority']
 
 /** A rule's limit as a threshold line labelled with the rule's name and condition. */
-export const ruleThresholdLine = (rule: { threshold: number, comparison: string, priority: string, name: string }): ChartThreshold =>
-  ({ value: rule.threshold, priority: rule.priority as Priority, label: `${rule.name}: ${rule.comparison} ${formatValue(rule.threshold)}` })
+export const ruleThresholdLine = (rule: { threshold: number, comparison: string, priority: string, name: string, measure?: string }, engineeringUnit?: string | null): ChartThreshold =>
+  ({ value: rule.threshold, priority: rule.priority as Priority, label: `${rule.name}: ${conditionText({ measure: rule.measure ?? 'value', comparison: rule.comparison, threshold: rule.threshold, engineeringUnit: (rule.measure ?? 'value') === 'value' ? engineeringUnit : null }).replace(/^value /, '')}` })
 
 /**
  * An alarm's activation as a marker at its time: "urgent alarm", "medium advisory alert" (an

@@ -1,15 +1,10 @@
-/** Engineering display: enough significant digits to read a trend, never a wall of decimals. */
+/** Engineering display: enough significant digits to read a trend, never scientific notation (shared/utils/numberText.ts). */
 export function formatValue(value: number | null | undefined, digits = 4): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return '—'
-  const abs = Math.abs(value)
-  if (abs !== 0 && (abs >= 1e6 || abs < 1e-3)) return value.toExponential(2)
-  return Number(value.toPrecision(digits)).toString()
+  return plainNumber(value, digits)
 }
 
-/** Plant-local time, explicit about the zone (times are stored in UTC). */
+/** Wall-clock time in `timeZone`, year-month-day (the one format of every screen; shared/utils/timeText.ts). */
 export function formatTime(iso: string | null | undefined, timeZone = 'UTC'): string {
   if (!iso) return '—'
-  return new Intl.DateTimeFormat('en-GB', {
-    timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit',
-  }).format(new Date(iso))
+  return wallClockText(iso, timeZone)
 }

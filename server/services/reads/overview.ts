@@ -1,17 +1,20 @@
 import type { TagStatus } from '#shared/alarms/vocabulary'
-import type { OverviewUnit } from '#shared/types/overview'
+import type { OverviewUnit, SetAsideAlarm } from '#shared/types/overview'
+import { tagDecimals } from '#shared/utils/numberText'
 import { tileStatus } from '#shared/utils/tileStatus'
 import type { Db } from '../../utils/db'
 import { overviewSparklines } from './overviewSparklines'
 
 interface OverviewRow {
   id: number, code: string, description: string, engineeringUnit: string, samplePeriodS: number
+  rangeLow: number, rangeHigh: number
   unitId: number, unitCode: string, unitName: string
   latestTime: string | null, latestValue: number | null
   status: TagStatus | null, reason: string | null, leadingIndicator: string | null, leadingValue: number | null
   tau: number | null, pValue: number | null, foldKind: 'projected' | 'none' | null
   foldSeconds: number | null, foldLowSeconds: number | null, foldHighSeconds: number | null
-  unackedAlarms: number | null, openAlarmClass: 'alarm' | 'alert' | null, openAlarmName: string | null
+  unackedAlarms: number | null, returnedUnacked: number | null, openAlarmClass: 'alarm' | 'alert' | null, openAlarmName: string | null
+  openAlarmAction: string | null, setAside: SetAsideAlarm[] | null
 }
 
 /**
@@ -20,13 +23,15 @@ interface OverviewRow {
  */
 async function readOverviewRows(db: Db): Promise<OverviewRow[]> {
   return db.$sql<OverviewRow[]>`
-    select t.id, t.code, t.description, t.engineering_unit as "engineeringUnit", t.sample_period_s as "samplePeriodS",
+    select t.id, t.code, t.description, t.engineering_unit as "engineeringUnit", t.sample_period_s as "samplePeriodS", t.range_low as "rangeLow", t.range_high as "rangeHigh",
       u.id as "unitId", u.code as "unitCode", u.name as "unitName",
       latest.time as "latestTime", latest.value as "latestValue",
       ts.status, ts.reason, ts.leading_indicator as "leadingIndicator", ts.leading_value as "leadingValue",
       ts.tau, ts.p_value as "pValue", ts.fold_kind as "foldKind", ts.fold_seconds as "foldSeconds",
       ts.fold_low_seconds as "foldLowSeconds", ts.fold_high_seconds as "foldHighSeconds",
-      coalesce(unacked.n, 0)::int as "unackedAlarms", unacked.open_class as "openAlarmClass", unacked.open_name as "openAlarmName"
+      coalesce(unacked.n, 0)::int as "unackedAlarms", coalesce(unacked.returned, 0)::int as "returnedUnacked",
+      unacked.open_class as "openAlarmClass", unacked.open_name as "openAlarmName", unacked.open_action as "openAlarmAction",
+      unacked.set_aside as "setAside"
     from tags t
     join units u on u.id = t.unit_id
     left join tag_status ts on ts.tag_id = t.id
@@ -35,6 +40,11 @@ async function readOverviewRows(db: Db): Promise<OverviewRow[]> {
     left join (
       select a.tag_id,
         count(*) filter (where a.state in ('unacknowledged', 'rtn_unacknowledged')) as n,
+        count(*) filter (where a.state = 'rtn_unacknowledged') as returned,
+        (array_agg(r.operator_action order by a.class = 'alarm' desc, a.activated_at desc) filter (where a.state in ('unacknowledged', 'acknowledged')))[1] as open_action,
+        -- Set aside (shelved, suppressed, out of service): listed on the tile, live excursions first.
+        json_agg(json_build_object('alarmId', a.id, 'state', a.state, 'name', r.name, 'conditionActive', a.condition_active, 'until', a.shelved_until)
+          order by a.condition_active desc, a.id) filter (where a.state in ('shelved', 'suppressed', 'out_of_service')) as set_aside,
         (array_agg(a.class order by a.class = 'alarm' desc, a.activated_at desc) filter (where a.state in ('unacknowledged', 'acknowledged')))[1] as open_class,
         (array_agg(r.name order by a.class = 'alarm' desc, a.activated_at desc) filter (where a.state in ('unacknowledged', 'acknowledged')))[1] as open_name
       from alarms a join alarm_rules r on r.id = a.rule_id
@@ -57,6 +67,7 @@ export async function readOverview(db: Db, nowMs = Date.now()): Promise<{ genera
     const { status, reason } = tileStatus({ stored, latestTimeMs, samplePeriodS: row.samplePeriodS, nowMs, openAlarm })
     unit.tiles.push({
       id: row.id, code: row.code, description: row.description, engineeringUnit: row.engineeringUnit,
+      decimals: tagDecimals(Number(row.rangeLow), Number(row.rangeHigh)),
       status, reason,
       value: row.latestValue === null ? null : Number(row.latestValue),
       valueTime: latestTimeMs === null ? null : new Date(latestTimeMs).toISOString(),
@@ -66,6 +77,9 @@ export async function readOverview(db: Db, nowMs = Date.now()): Promise<{ genera
         ? { kind: 'projected', seconds: row.foldSeconds, lowSeconds: row.foldLowSeconds, highSeconds: row.foldHighSeconds }
         : { kind: 'none' },
       unackedAlarms: row.unackedAlarms ?? 0,
+      returnedUnacked: row.returnedUnacked ?? 0,
+      action: row.openAlarmAction,
+      setAside: (row.setAside ?? []).map(s => ({ ...s, alarmId: Number(s.alarmId) })),
     })
   }
   return { generatedAt: new Date(nowMs).toISOString(), units }

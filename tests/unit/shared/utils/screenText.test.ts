@@ -1,0 +1,61 @@
+import { describe, expect, it } from 'vitest'
+import { plainNumber, pValueText, tagDecimals, tagValue } from '../../../../shared/utils/numberText'
+import { conditionText, measureReading } from '../../../../shared/utils/alarmText'
+import { ageText, plantDateTime } from '../../../../shared/utils/timeText'
+
+// The formatting rules of issue 12 items 5 and 8. Reference values are worked by hand from the
+// rule each test names; time-zone offsets are from the IANA tz database [common practice].
+describe('numbers on screens', () => {
+  it('never uses scientific notation: small values in full, large ones grouped', () => {
+    expect(plainNumber(0.000123, 3)).toBe('0.000123')
+    expect(plainNumber(1.5e-7, 2)).toBe('0.00000015')
+    expect(plainNumber(2_345_678)).toBe('2,345,678')
+    expect(plainNumber(350.2468)).toBe('350.2')
+    expect(plainNumber(0.5)).toBe('0.5')
+    expect(plainNumber(0)).toBe('0')
+    expect(plainNumber(null)).toBe('—')
+    for (const v of [1e-9, 3.3e-5, 7.1e8, -4.2e-6]) expect(plainNumber(v)).not.toMatch(/e/i)
+  })
+
+  it('gives every value of a tag the same decimals, four significant figures of its range', () => {
+    // 0–1.2 pu: span 1.2 → 3 decimals, so 1 and 0.9988 read "1.000" and "0.999".
+    const pu = tagDecimals(0, 1.2)
+    expect([tagValue(1, pu), tagValue(0.9988, pu)]).toEqual(['1.000', '0.999'])
+    // 300–500 K: span 200 → 1 decimal.
+    expect(tagValue(350.26, tagDecimals(300, 500))).toBe('350.3')
+    expect(tagValue(-0.0001, 3)).toBe('0.000')
+    expect(tagValue(null, 2)).toBe('—')
+  })
+
+  it('writes p-values below 0.001 as "< 0.001"', () => {
+    expect([pValueText(0.0004), pValueText(0.04), pValueText(0.3149)]).toEqual(['< 0.001', '0.04', '0.31'])
+  })
+})
+
+describe('alarm conditions in words', () => {
+  it('reads the 0/1 early-warning flag as words, not as a number', () => {
+    expect(conditionText({ measure: 'early_warning', comparison: 'above', threshold: 0.5 })).toBe('early-warning decision: slowing down')
+    expect(measureReading('early_warning', 0)).toBe('no slowing down')
+    expect(measureReading('early_warning', 1)).toBe('slowing down')
+  })
+  it('puts the engineering unit on value limits and writes fold horizons as durations', () => {
+    expect(conditionText({ measure: 'value', comparison: 'above', threshold: 400, engineeringUnit: 'K' })).toBe('value above 400 K')
+    expect(conditionText({ measure: 'fold_horizon', comparison: 'below', threshold: 1200 })).toBe('fold horizon below 20 min')
+    expect(measureReading('fold_horizon', Number.POSITIVE_INFINITY)).toBe('no fold in view')
+  })
+})
+
+describe('times on screens', () => {
+  it('shows one year-month-day format on the plant clock with the zone named (London is UTC+0 in January, UTC+1 in July)', () => {
+    expect(plantDateTime('2026-01-05T08:00:00Z', 'Europe/London')).toBe('2026-01-05 08:00:00 Europe/London')
+    expect(plantDateTime('2026-07-01T08:00:00Z', 'Europe/London')).toBe('2026-07-01 09:00:00 Europe/London')
+    expect(plantDateTime(null, 'UTC')).toBe('—')
+  })
+  it('writes ages beside times', () => {
+    const now = Date.parse('2026-07-01T08:00:00Z')
+    expect(ageText('2026-07-01T07:48:00Z', now)).toBe('12 min ago')
+    expect(ageText('2026-07-01T05:55:00Z', now)).toBe('2 h 05 min ago')
+    expect(ageText('2026-07-01T07:59:55Z', now)).toBe('just now')
+    expect(ageText('2026-07-01T08:05:00Z', now)).toBe('in 5 min')
+  })
+})
