@@ -1,7 +1,10 @@
 // A short two-tone chime when an urgent alarm appears that was not in the list before. Generated
 // with WebAudio (no audio file is fetched). The first list seen is the baseline: opening the page
 // on a list with urgent alarms in it stays quiet, only new ones sound.
-export function useUrgentAlarmSound(alarms: Ref<Array<{ id: number, priority: string, state: string }> | undefined>, enabled: Ref<boolean>) {
+export function useUrgentAlarmSound(
+  alarms: Ref<Array<{ id: number, priority: string, state: string }> | undefined>,
+  enabled: Ref<boolean>,
+) {
   let known: Set<number> | null = null
   let audio: AudioContext | null = null
 

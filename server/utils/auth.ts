@@ -26,7 +26,8 @@ export async function refuseStaleSession(event: H3Event, session: { user: User, 
   const loggedInAt = Number(session.loggedInAt ?? 0)
   const lastSeenAt = Number(session.lastSeenAt ?? loggedInAt)
   const idleMs = sessionIdleMs()
-  const refusal = sessionRefusal({ role: session.user.role, loggedInAt, lastSeenAt }, await accountState(useDb(), session.user.id, now), now, idleMs)
+  const account = await accountState(useDb(), session.user.id, now)
+  const refusal = sessionRefusal({ role: session.user.role, loggedInAt, lastSeenAt }, account, now, idleMs)
   if (refusal) {
     await clearUserSession(event)
     throw createError({ statusCode: 401, message: refusal })

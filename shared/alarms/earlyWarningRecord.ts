@@ -44,7 +44,8 @@ export function earlyWarningRecord(incidents: RecordIncident[]): UnitEarlyWarnin
       if (summary.verdict === 'before') leads.push(summary.leadTimeS!)
       const lastLimit = Math.max(Number.NEGATIVE_INFINITY, ...incident.members.filter(isLimitAlarm).map(m => m.raisedAt))
       for (const m of incident.members.filter(isEarlyWarning)) {
-        if (m.raisedAt >= lastLimit) unfollowedAlerts.push({ alarmId: m.alarmId, incidentId: incident.incidentId, raisedAt: m.raisedAt, outcome: m.outcome })
+        if (m.raisedAt < lastLimit) continue
+        unfollowedAlerts.push({ alarmId: m.alarmId, incidentId: incident.incidentId, raisedAt: m.raisedAt, outcome: m.outcome })
       }
     }
     const count = (o: AlertOutcome | null) => unfollowedAlerts.filter(a => a.outcome === o).length

@@ -128,7 +128,8 @@ function perRule(items: { alarm: HealthAlarm, at: number }[]) {
 /** The ten most frequent alarms (ties by name) and their combined share of the load (TR18.2.5: ~< 1 %, 5 % at most). */
 export function topTen(items: { alarm: HealthAlarm, at: number }[]): { alarms: AlarmCount[], share: number } {
   const total = items.length
-  const alarms = perRule(items).map(r => ({ ruleId: r.ruleId, ruleName: r.ruleName, count: r.times.length, share: total ? r.times.length / total : 0 }))
+  const alarms = perRule(items)
+    .map(r => ({ ruleId: r.ruleId, ruleName: r.ruleName, count: r.times.length, share: total ? r.times.length / total : 0 }))
     .sort((a, b) => b.count - a.count || a.ruleName.localeCompare(b.ruleName)).slice(0, 10)
   return { alarms, share: alarms.reduce((s, a) => s + a.share, 0) }
 }
@@ -230,7 +231,10 @@ export function alarmSystemHealth(all: HealthAlarm[], p: Period): HealthReport {
   const alertItems = annunciations(all, 'alert', p)
   const alarmsOnly = all.filter(a => a.alarmClass === 'alarm')
   const chattering = perRule(alarmItems)
-    .map(r => ({ ruleId: r.ruleId, ruleName: r.ruleName, count: r.times.length, mostIn60s: mostWithinSpan(r.times), chatterIndex: chatterIndex(r.times) }))
+    .map(r => ({
+      ruleId: r.ruleId, ruleName: r.ruleName, count: r.times.length,
+      mostIn60s: mostWithinSpan(r.times), chatterIndex: chatterIndex(r.times),
+    }))
     .filter(r => r.mostIn60s >= CHATTER_COUNT)
     .sort((a, b) => b.mostIn60s - a.mostIn60s || a.ruleName.localeCompare(b.ruleName))
   const alarmCounts = countsPer10Min(alarmItems.map(i => i.at), p)

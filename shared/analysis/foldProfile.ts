@@ -43,7 +43,8 @@ export function foldProfile(times: ArrayLike<number>, values: ArrayLike<number>,
   const pairs = pairsOf(times, values)
   if (!(pairs.sxx > 0)) return { kind: 'none', reason: 'flat window' }
   const rssConstant = pairs.syy - pairs.sxy * pairs.sxy / pairs.sxx
-  const grid = Array.from({ length: GRID_POINTS }, (_, i) => now + span * GRID_NEAREST * (GRID_FARTHEST / GRID_NEAREST) ** (i / (GRID_POINTS - 1)))
+  const grid = Array.from({ length: GRID_POINTS },
+    (_, i) => now + span * GRID_NEAREST * (GRID_FARTHEST / GRID_NEAREST) ** (i / (GRID_POINTS - 1)))
   const phi0 = Math.min(0.999, Math.max(0.01, pairs.sxy / pairs.sxx))
   const profile = grid.map(() => ({ rss: Number.POSITIVE_INFINITY, shape: SHAPES[0].name as FoldProfileShape }))
   for (const shape of SHAPES) {

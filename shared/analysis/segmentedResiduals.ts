@@ -30,7 +30,9 @@ export interface StepRule {
 export const DEFAULT_STEP_RULE: StepRule = { threshold: 6, confirm: 5 }
 
 /** Residuals of the one-sided local-linear trend (bandwidth in s), restarted after each step. */
-export function segmentedResiduals(times: ArrayLike<number>, values: ArrayLike<number>, bandwidthS: number, rule: StepRule = DEFAULT_STEP_RULE): SegmentedResiduals {
+export function segmentedResiduals(
+  times: ArrayLike<number>, values: ArrayLike<number>, bandwidthS: number, rule: StepRule = DEFAULT_STEP_RULE,
+): SegmentedResiduals {
   const n = values.length
   const residuals = new Float64Array(n)
   const usableFrom = new Int32Array(n)

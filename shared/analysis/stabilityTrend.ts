@@ -139,7 +139,9 @@ function sPowerSums(n: number): Float64Array {
  * Least squares on the first `size` columns by Cholesky of the normal equations (a handful of
  * columns, well scaled: s ∈ [−½, ½] and centred values). Returns β, β'X'y and [(X'X)⁻¹]_last.
  */
-function solveNormal(xtx: Float64Array, xty: Float64Array, size: number): { beta: Float64Array, explained: number, inverseDiagonalLast: number } | null {
+function solveNormal(
+  xtx: Float64Array, xty: Float64Array, size: number,
+): { beta: Float64Array, explained: number, inverseDiagonalLast: number } | null {
   const k = Math.round(Math.sqrt(xtx.length))
   const l = new Float64Array(size * size)
   for (let i = 0; i < size; i++) {

@@ -67,7 +67,9 @@ const FOLD_GATE_P = 0.05
 const FOLD_CONFIDENCE = 0.9
 
 /** Evaluates a tag over its new samples; returns the evaluation points and the carried count. */
-export function evaluateRecord(input: RecordInput, time: StageTimer = untimed): { points: EvaluationPoint[], samplesSinceEvaluation: number } {
+export function evaluateRecord(
+  input: RecordInput, time: StageTimer = untimed,
+): { points: EvaluationPoint[], samplesSinceEvaluation: number } {
   const { times, values, settings } = input
   const detrended = time('detrend', () => segmentedResiduals(times, values, settings.detrendBandwidthS))
   const points: EvaluationPoint[] = []
@@ -89,7 +91,11 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, usableFrom: Int
   }
   const start = Math.max(end + 1 - settings.windowSamples, usable)
   const w = end + 1 - start
-  const limits = { ...DEFAULT_QUALITY_LIMITS, minSamples: Math.min(DEFAULT_QUALITY_LIMITS.minSamples, settings.windowSamples), maxGapSeconds: 10 * input.samplePeriodS }
+  const limits = {
+    ...DEFAULT_QUALITY_LIMITS,
+    minSamples: Math.min(DEFAULT_QUALITY_LIMITS.minSamples, settings.windowSamples),
+    maxGapSeconds: 10 * input.samplePeriodS,
+  }
   const current = time('quality and indicators', () => {
     const verdict = checkQuality(times.subarray(start, end + 1), values.subarray(start, end + 1), limits)
     if (!verdict.ok) return { quality: `${verdict.failed}: ${verdict.reason}` as const, indicators: null }
@@ -120,7 +126,8 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, usableFrom: Int
   const judged = time('trend tests', () => {
     const stability = stabilityTrendTest(trendResiduals, settings.surrogates, createRng(seedFor(input.tagId, times[end]!)))
     const variance = varianceChange(trendResiduals, stability.fit.phiMiddle)
-    return { stability, variance, evidence: judgeEvidence(stability, variance, lookAlpha(settings, input.samplePeriodS, end + 1 - trendStart)) }
+    const alpha = lookAlpha(settings, input.samplePeriodS, end + 1 - trendStart)
+    return { stability, variance, evidence: judgeEvidence(stability, variance, alpha) }
   })
   const taus = time('trend tests', () => displayTaus(trendTimes, trendResiduals, settings))
   const rising = judged.stability.fit.slope > 0

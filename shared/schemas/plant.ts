@@ -62,7 +62,10 @@ const tagFields = {
   loopRole: z.enum(LOOP_ROLES, { errorMap: () => ({ message: `must be one of ${LOOP_ROLES.join(', ')}` }) }).nullable(),
 }
 
-type TagShape = Partial<{ rangeLow: number, rangeHigh: number, noiseFloor: number, quantisationStep: number, loopTagId: number | null, loopRole: string | null }>
+type TagShape = Partial<{
+  rangeLow: number, rangeHigh: number, noiseFloor: number, quantisationStep: number,
+  loopTagId: number | null, loopRole: string | null
+}>
 
 /** Checks across fields; on an edit the server runs them again on the tag as it would become. */
 export function tagCrossIssues(tag: TagShape): { field: string, message: string }[] {

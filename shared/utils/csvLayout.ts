@@ -44,7 +44,8 @@ const NAMES = {
 export function guessColumns(header: readonly string[], rows: readonly string[][], isKnownTag: (code: string) => boolean): ColumnGuess {
   const find = (re: RegExp) => header.find(h => re.test(h.trim()))
   const timeColumn = find(NAMES.time) ?? header[0] ?? ''
-  const byValues = header.find((h, i) => h !== timeColumn && rows.length > 0 && rows.every(r => r[i] !== undefined && isKnownTag(r[i]!.trim())))
+  const byValues = header.find((h, i) =>
+    h !== timeColumn && rows.length > 0 && rows.every(r => r[i] !== undefined && isKnownTag(r[i]!.trim())))
   const tagColumn = find(NAMES.tag) ?? byValues
   const valueColumn = find(NAMES.value)
   if (tagColumn && valueColumn)

@@ -9,7 +9,9 @@ export default defineEventHandler(async (event) => {
     return note
   }
   catch (err) {
-    if (err instanceof ShiftLogLinkError) throw createError({ statusCode: 400, message: err.message, data: { issues: [{ field: err.field, reason: err.message }] } })
+    if (err instanceof ShiftLogLinkError) {
+      throw createError({ statusCode: 400, message: err.message, data: { issues: [{ field: err.field, reason: err.message }] } })
+    }
     throw err
   }
 })

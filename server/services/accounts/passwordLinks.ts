@@ -54,6 +54,11 @@ export async function usePasswordLink(tx: DbExecutor, token: string, passwordHas
 export async function passwordLinkOwner(db: DbExecutor, token: string) {
   const [row] = await db.select({ email: users.email, name: users.name, purpose: passwordTokens.purpose }).from(passwordTokens)
     .innerJoin(users, eq(users.id, passwordTokens.userId))
-    .where(and(eq(passwordTokens.tokenHash, digest(token)), isNull(passwordTokens.usedAt), gt(passwordTokens.expiresAt, new Date()), eq(users.active, true)))
+    .where(and(
+      eq(passwordTokens.tokenHash, digest(token)),
+      isNull(passwordTokens.usedAt),
+      gt(passwordTokens.expiresAt, new Date()),
+      eq(users.active, true),
+    ))
   return row ?? null
 }

@@ -8,7 +8,8 @@ import { indicatorPoints, indicatorSettings, indicatorSettingsVersions, sites, t
 export const SETTINGS_KEYS = ['windowSamples', 'detrendBandwidthS', 'trendWindowSamples', 'minTrendSamples', 'indicatorStep',
   'evaluateEvery', 'surrogates', 'alpha'] as const satisfies readonly (keyof IndicatorSettings)[]
 
-const pick = (row: IndicatorSettings): IndicatorSettings => Object.fromEntries(SETTINGS_KEYS.map(k => [k, row[k]])) as unknown as IndicatorSettings
+const pick = (row: IndicatorSettings): IndicatorSettings =>
+  Object.fromEntries(SETTINGS_KEYS.map(k => [k, row[k]])) as unknown as IndicatorSettings
 
 /** The tag with its site's zone, the settings in force (or the starting values) and the row behind them. */
 export async function findTagSettings(db: DbExecutor, tagId: number) {
@@ -36,14 +37,20 @@ export async function readTagSettings(db: Db, tagId: number) {
   ])
   const { minSamples, minDistinctLevels, minSdInSteps, maxRepeatFraction, maxCollinearFraction } = DEFAULT_QUALITY_LIMITS
   return {
-    tag: { id: found.tag.id, code: found.tag.code, description: found.tag.description, samplePeriodS: found.tag.samplePeriodS, engineeringUnit: found.tag.engineeringUnit },
+    tag: {
+      id: found.tag.id, code: found.tag.code, description: found.tag.description,
+      samplePeriodS: found.tag.samplePeriodS, engineeringUnit: found.tag.engineeringUnit,
+    },
     timeZone: found.timeZone,
     current: found.current,
     defaults: found.defaults,
     versionId: found.stored?.versionId ?? null,
     // The gate's limits are the engine's own (shared/analysis/quality.ts), the same for every tag;
     // the gap limit follows the sample period (10 Δ).
-    qualityLimits: { minSamples, minDistinctLevels, minSdInSteps, maxRepeatFraction, maxCollinearFraction, maxGapSeconds: 10 * found.tag.samplePeriodS },
+    qualityLimits: {
+      minSamples, minDistinctLevels, minSdInSteps, maxRepeatFraction, maxCollinearFraction,
+      maxGapSeconds: 10 * found.tag.samplePeriodS,
+    },
     versions,
     pointsByVersion: points,
   }

@@ -6,9 +6,12 @@ import { setTagRetired } from './tags'
 import { setUnitRetired } from './units'
 
 const SETTERS = {
-  site: (tx: DbTransaction, id: number, retired: boolean) => setSiteRetired(tx, id, retired).then(r => r && { row: r.site, changed: r.changed }),
-  unit: (tx: DbTransaction, id: number, retired: boolean) => setUnitRetired(tx, id, retired).then(r => r && { row: r.unit, changed: r.changed }),
-  tag: (tx: DbTransaction, id: number, retired: boolean) => setTagRetired(tx, id, retired).then(r => r && { row: r.tag, changed: r.changed }),
+  site: (tx: DbTransaction, id: number, retired: boolean) =>
+    setSiteRetired(tx, id, retired).then(r => r && { row: r.site, changed: r.changed }),
+  unit: (tx: DbTransaction, id: number, retired: boolean) =>
+    setUnitRetired(tx, id, retired).then(r => r && { row: r.unit, changed: r.changed }),
+  tag: (tx: DbTransaction, id: number, retired: boolean) =>
+    setTagRetired(tx, id, retired).then(r => r && { row: r.tag, changed: r.changed }),
 }
 
 /**
