@@ -91,7 +91,9 @@ export class OpcuaPlantServer {
       allowAnonymous: !users,
       securityModes: [MessageSecurityMode.None, MessageSecurityMode.Sign, MessageSecurityMode.SignAndEncrypt],
       securityPolicies: [SecurityPolicy.None, SecurityPolicy.Basic256Sha256],
-      userManager: users ? { isValidUser: (name: string, password: string) => users.some(u => u.username === name && u.password === password) } : undefined,
+      userManager: users
+        ? { isValidUser: (name: string, password: string) => users.some(u => u.username === name && u.password === password) }
+        : undefined,
       buildInfo: { productName: 'Fenwick Works demo plant server', manufacturerName: 'Harrowgate Process Co. (invented)' },
     })
     server.on('request', (request: { schema: { name: string } }) => {

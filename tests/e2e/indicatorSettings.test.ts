@@ -23,7 +23,8 @@ beforeAll(async () => {
   engineer = await signInAs('engineer')
   const [unit] = await sql`select code from units order by id limit 1`
   tagId = await createTestTag(sql, CODE, unit!.code, 1)
-  await ingestOu(process.env.BRINKLINE_SIM_KEY!, { code: CODE, periodS: 1, samples: 1600, endMs: END_MS - 200_000, mean: 400, k: 0.3, sigma: 0.5, seed: 21 })
+  await ingestOu(process.env.BRINKLINE_SIM_KEY!,
+    { code: CODE, periodS: 1, samples: 1600, endMs: END_MS - 200_000, mean: 400, k: 0.3, sigma: 0.5, seed: 21 })
   await runServerTask('indicators:refresh')
 })
 
@@ -97,7 +98,8 @@ describe('indicator settings of a tag', () => {
     expect(read.body.versions[1].settings).toEqual(defaultIndicatorSettings(1))
     expect(read.body.pointsByVersion).toEqual([expect.objectContaining({ versionId: start, count: before })])
 
-    await ingestOu(process.env.BRINKLINE_SIM_KEY!, { code: CODE, periodS: 1, samples: 200, endMs: END_MS, mean: 400, k: 0.3, sigma: 0.5, seed: 22 })
+    await ingestOu(process.env.BRINKLINE_SIM_KEY!,
+      { code: CODE, periodS: 1, samples: 200, endMs: END_MS, mean: 400, k: 0.3, sigma: 0.5, seed: 22 })
     await runServerTask('indicators:refresh')
     const byVersion = await sql`select settings_version_id as v, count(*)::int as n from indicator_points where tag_id = ${tagId} group by 1 order by 1`
     expect(byVersion).toEqual([{ v: start, n: before }, { v: res.body.versionId, n: 200 / settings.evaluateEvery }])

@@ -9,7 +9,8 @@ export interface AxeFinding { id: string, impact: string, help: string, targets:
 export async function seriousA11yViolations(page: Page): Promise<AxeFinding[]> {
   await page.addScriptTag({ path: axePath })
   return page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: Array<{ id: string, impact: string, help: string, nodes: Array<{ target: string[] }> }> }> } }).axe
+    type Violation = { id: string, impact: string, help: string, nodes: Array<{ target: string[] }> }
+    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: Violation[] }> } }).axe
     const result = await axe.run(document, { resultTypes: ['violations'] })
     return result.violations
       .filter(v => v.impact === 'serious' || v.impact === 'critical')

@@ -38,7 +38,8 @@ export async function ingestAll(samples: { tag: string, time: string, value: num
 export async function mailboxMessages(httpPort: number): Promise<{ to: string[], subject: string, text: string, receivedAt: string }[]> {
   const res = await fetch(`http://127.0.0.1:${httpPort}/api/messages`)
   const body = await res.json() as unknown
-  const list = (Array.isArray(body) ? body : (body as { messages: unknown[] }).messages) as { to: string[], subject: string, text: string, receivedAt: string }[]
+  type Message = { to: string[], subject: string, text: string, receivedAt: string }
+  const list = (Array.isArray(body) ? body : (body as { messages: unknown[] }).messages) as Message[]
   return [...list].sort((a, b) => a.receivedAt.localeCompare(b.receivedAt))
 }
 

@@ -34,7 +34,8 @@ export function runDakosOnline(series: SampledSeries, alphas: readonly number[],
   for (let end = every - 1; end < series.values.length; end += every) {
     if (end + 1 < window) continue
     const start = end + 1 - window
-    const trend = dakosTrendTest(series.times.subarray(start, end + 1), series.values.subarray(start, end + 1), settings.surrogates, rng, false)
+    const trend = dakosTrendTest(
+      series.times.subarray(start, end + 1), series.values.subarray(start, end + 1), settings.surrogates, rng, false)
     decisions++
     for (const [alpha, state] of byAlpha) {
       const evidence = trend.pAr1 <= alpha

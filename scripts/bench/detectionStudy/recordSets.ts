@@ -88,7 +88,8 @@ export function* studyRecords(counts: SetCounts, firstIndex = 0): Generator<Stud
         const series = kind.make(samples, createRng(seedOf(set, firstIndex + i)))
         yield {
           id: id++, group: kind.name, forced: false, modelNull: false, length, samples: series.values.length,
-          lastTime: series.times[series.times.length - 1]!, bifurcationTime: null, escapeTime: null, stopBeforeTau: null, tau0: null, series,
+          lastTime: series.times[series.times.length - 1]!,
+          bifurcationTime: null, escapeTime: null, stopBeforeTau: null, tau0: null, series,
         }
       }
     }

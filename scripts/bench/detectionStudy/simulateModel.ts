@@ -36,7 +36,9 @@ export function simulateModel(model: BenchModel, options: ModelRunOptions, rng: 
   const tau = characteristicTime(model)
   const lastSampleTime = options.samples - 1
   const bifurcationTime = options.stopBeforeTau === null ? null : lastSampleTime + options.stopBeforeTau * tau
-  const parameter = (t: number) => (bifurcationTime === null ? model.p0 : model.p0 + (model.critical - model.p0) * Math.max(0, t) / bifurcationTime)
+  const parameter = (t: number) => (bifurcationTime === null
+    ? model.p0
+    : model.p0 + (model.critical - model.p0) * Math.max(0, t) / bifurcationTime)
   const h = 1 / SUBSTEPS
   const noise = model.sigma * Math.sqrt(h)
   let x = model.equilibrium(model.p0)

@@ -6,7 +6,7 @@ import { BENCH_MODELS } from './models'
 import { NULL_KINDS } from './nullSeries'
 import type { RecordLength } from './recordSets'
 import { PRODUCT_ALPHA, type RecordOutcome } from './scoreRecord'
-import { alertRates, discrimination, forcedScores, noFoldInView, streamCounts } from './scores'
+import { alertRates, discrimination, forcedScores, noFoldInView, streamCounts, type AlertRates, type TipScores } from './scores'
 import { median } from './stats'
 
 const LENGTHS: readonly RecordLength[] = ['short', 'long']
@@ -47,12 +47,18 @@ export function printDiscrimination(outcomes: readonly RecordOutcome[]): void {
     }))
 }
 
+// The rate columns tables 2 and 3 share.
+const rateCells = (r: AlertRates) => [
+  formatRate(r.liveAny), formatRate(r.liveSustained), formatRate(r.dakos05), formatRate(r.dakos01),
+  formatRate(r.onlineAny05), formatRate(r.onlineSustained05),
+]
+
 export function printDetection(outcomes: readonly RecordOutcome[]): void {
   printTable(`2. Detection on forced records [Wilson 95%]: LIVE alert raised / still active at the end; Dakos p(AR1) ≤ ${DAKOS_ALPHA} and ≤ ${PRODUCT_ALPHA} (product α); Dakos as monitor at α=${DAKOS_ALPHA} (long)`,
     ['model', 'len', 'LIVE any alert', 'LIVE active at end', `Dakos α=${DAKOS_ALPHA}`, `Dakos α=${PRODUCT_ALPHA}`, 'monitor any', 'monitor at end'],
     eachModelSet(outcomes).map(({ model, length, sets }) => {
       const r = alertRates(sets.forced)
-      return [model, length, formatRate(r.liveAny), formatRate(r.liveSustained), formatRate(r.dakos05), formatRate(r.dakos01), formatRate(r.onlineAny05), formatRate(r.onlineSustained05)]
+      return [model, length, ...rateCells(r)]
     }))
 }
 
@@ -61,7 +67,7 @@ export function printFalsePositives(outcomes: readonly RecordOutcome[]): void {
     ['null kind', 'len', 'LIVE any alert', 'LIVE active at end', `Dakos α=${DAKOS_ALPHA}`, `Dakos α=${PRODUCT_ALPHA}`, 'monitor any', 'monitor at end'],
     eachNullSet(outcomes).map(({ name, length, nulls }) => {
       const r = alertRates(nulls)
-      return [name, length, formatRate(r.liveAny), formatRate(r.liveSustained), formatRate(r.dakos05), formatRate(r.dakos01), formatRate(r.onlineAny05), formatRate(r.onlineSustained05)]
+      return [name, length, ...rateCells(r)]
     }))
 }
 
@@ -77,14 +83,16 @@ export function printLeadTimes(outcomes: readonly RecordOutcome[]): void {
     }))
 }
 
+// Table 5's four columns per method.
+const tipCells = (tip: TipScores) =>
+  [formatRate(tip.given), formatRate(tip.covers), formatRate(tip.beatsNaive), formatNumber(tip.medianRelativeError, 2)]
+
 export function printTipProjections(outcomes: readonly RecordOutcome[]): void {
   printTable('5. Tip projection at the last point on forced records: given; of those, band holds the bifurcation; beats "tip = last sample"; median |error|/|naive error|',
     ['model', 'len', 'LIVE given', 'LIVE band covers', 'LIVE beats naive', 'rel.err', 'Dakos given', 'Dakos band covers', 'Dakos beats naive', 'rel.err'],
     eachModelSet(outcomes).map(({ model, length, sets }) => {
       const { live, dakos } = forcedScores(sets.forced)
-      return [model, length,
-        formatRate(live.tip.given), formatRate(live.tip.covers), formatRate(live.tip.beatsNaive), formatNumber(live.tip.medianRelativeError, 2),
-        formatRate(dakos.tip.given), formatRate(dakos.tip.covers), formatRate(dakos.tip.beatsNaive), formatNumber(dakos.tip.medianRelativeError, 2)]
+      return [model, length, ...tipCells(live.tip), ...tipCells(dakos.tip)]
     }))
 }
 

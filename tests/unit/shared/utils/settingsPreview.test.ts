@@ -43,7 +43,8 @@ describe('indicator settings preview', () => {
   }, 60_000)
 
   it('equal settings give equal sides', () => {
-    const same = buildSettingsPreview({ times: series.times, values: series.values, grid, samplePeriodS: 1, seed: 3, current, proposed: current })
+    const same = buildSettingsPreview(
+      { times: series.times, values: series.values, grid, samplePeriodS: 1, seed: 3, current, proposed: current })
     expect(same.proposed).toEqual(same.current)
   })
 
