@@ -116,6 +116,9 @@ describe('live alarm lifecycle (ISA-18.2 state-transition diagram per docs/scien
     const tooLong = await call(`/api/alarms/${open.id}/shelve`, { method: 'POST', cookie: operator, json: { reason: 'instrument check', minutes: 721 } })
     expect(tooLong.status).toBe(400)
     expect(tooLong.body.message).toContain('minutes')
+    // The body says what went wrong, not "Server Error" (issue 12 item 5): RFC 9110 §15.5.1 names 400 "Bad Request".
+    expect(tooLong.body.statusMessage).toBe('Bad Request')
+    expect(JSON.stringify(tooLong.body)).not.toContain('Server Error')
     expect((await call(`/api/alarms/${open.id}/shelve`, { method: 'POST', cookie: operator, json: { minutes: 5 } })).body.message).toContain('reason')
     const shelved = await call(`/api/alarms/${open.id}/shelve`, { method: 'POST', cookie: operator, json: { reason: 'instrument check', minutes: 1 } })
     expect(shelved.status).toBe(200)

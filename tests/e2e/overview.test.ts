@@ -8,14 +8,17 @@ import { createTestGateway, ingest } from '../support/gateway'
 await setupBuiltServer()
 
 let cookie = ''
-const NOW = Date.now()
 // JI-302 (2 s period) gets fresh samples; EI-301 (2 s) samples that stopped 60 s ago, more than
-// 3 sample periods and the 15 s floor.
-const fresh = Array.from({ length: 120 }, (_, i) => ({ tag: 'JI-302', time: NOW - (119 - i) * 2_000, value: 50 + (i % 7) }))
-const stopped = Array.from({ length: 30 }, (_, i) => ({ tag: 'EI-301', time: NOW - 60_000 - (29 - i) * 2_000, value: 0.98 }))
+// 3 sample periods and the 15 s floor. Stamped once the server is up, so a slow start on a
+// loaded machine cannot age the "fresh" ones past the limit.
+let fresh: { tag: string, time: number, value: number }[] = []
+let stopped: typeof fresh = []
 
 beforeAll(async () => {
   const { key } = await createTestGateway('overview-gateway')
+  const now = Date.now()
+  fresh = Array.from({ length: 120 }, (_, i) => ({ tag: 'JI-302', time: now - (119 - i) * 2_000, value: 50 + (i % 7) }))
+  stopped = Array.from({ length: 30 }, (_, i) => ({ tag: 'EI-301', time: now - 60_000 - (29 - i) * 2_000, value: 0.98 }))
   expect((await ingest(key, { samples: [...fresh, ...stopped] })).status).toBe(200)
   cookie = await signInAs('operator')
 })
