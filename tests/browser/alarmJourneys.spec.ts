@@ -23,7 +23,7 @@ const OLD = 'TT-908'
 const ruleOf = (tagId: number, code: string) => ({
   targetKind: 'tag', tagId, name: `${code} high limit`, measure: 'value', comparison: 'above', threshold: 100,
   priority: 'high', alarmClass: 'alarm', consequence: 'Test vessel over-temperature.', likelyCause: 'Heater stuck on.',
-  operatorAction: `Switch the ${code} heater off.`,
+  operatorAction: `Switch the ${code} heater off.`, timeToRespondS: 600,
 })
 const alarmIdOf = async (code: string) => Number((await sql`select a.id from alarms a join tags t on t.id = a.tag_id where t.code = ${code}`)[0]!.id)
 

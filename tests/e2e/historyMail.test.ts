@@ -23,7 +23,7 @@ beforeAll(async () => {
   const res = await call('/api/rules', { method: 'POST', cookie: engineer, json: {
     targetKind: 'tag', tagId, name: 'TT-905 high limit', measure: 'value', comparison: 'above', threshold: 100,
     priority: 'urgent', alarmClass: 'alarm', consequence: 'Test vessel over-temperature.', likelyCause: 'Heater stuck on.',
-    operatorAction: 'Switch the test heater off.',
+    operatorAction: 'Switch the test heater off.', timeToRespondS: 600,
   } })
   if (res.status !== 201) throw new Error(`rule create answered ${res.status}`)
 })
