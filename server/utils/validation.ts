@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
-import { useSafeValidatedBody, useSafeValidatedParams, useSafeValidatedQuery } from 'h3-zod'
+import { getValidatedQuery, getValidatedRouterParams, readValidatedBody } from 'h3'
 
 /** "samples.3.value: Expected number, received string; name: is required" */
 export function describeIssues(error: z.ZodError): string {
@@ -15,16 +15,23 @@ function badRequest(error: z.ZodError): never {
   })
 }
 
-type SafeReader = (event: H3Event, schema: never) => Promise<unknown>
+type ValidatedReader = (event: H3Event, validate: (data: unknown) => Promise<unknown>) => Promise<unknown>
 
-// h3-zod's throwing variants answer with a raw issue dump; these name each field in words.
-function validWith(read: SafeReader) {
+// h3's own validated readers answer a failed check with a bare "Validation Error"; these name each
+// field in words. The check runs inside h3's reader; its zod error is kept and answered here.
+function validWith(read: ValidatedReader) {
   return async <T extends z.ZodTypeAny>(event: H3Event, schema: T): Promise<z.output<T>> => {
-    const result = await read(event, schema as never) as z.SafeParseReturnType<unknown, z.output<T>>
-    return result.success ? result.data : badRequest(result.error)
+    let failure: z.ZodError | undefined
+    const check = async (data: unknown) => {
+      const result = await schema.safeParseAsync(data)
+      if (result.success) return result.data
+      failure = result.error
+      return false
+    }
+    return await read(event, check).catch((err: unknown) => (failure ? badRequest(failure) : Promise.reject(err))) as z.output<T>
   }
 }
 
-export const validBody = validWith(useSafeValidatedBody as SafeReader)
-export const validQuery = validWith(useSafeValidatedQuery as SafeReader)
-export const validParams = validWith(useSafeValidatedParams as SafeReader)
+export const validBody = validWith(readValidatedBody as ValidatedReader)
+export const validQuery = validWith(getValidatedQuery as ValidatedReader)
+export const validParams = validWith(getValidatedRouterParams as ValidatedReader)
