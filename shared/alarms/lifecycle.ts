@@ -53,6 +53,11 @@ const SET_ASIDE: Record<'shelved' | 'suppressed' | 'out_of_service', { enter: Li
 
 const isSetAside = (state: AlarmState): state is keyof typeof SET_ASIDE => state in SET_ASIDE
 
+/** Whether an operator may acknowledge an alarm in this state (screens ask before offering it). */
+export function canAcknowledge(state: AlarmState): boolean {
+  return applyLifecycleEvent({ state, conditionActive: state === 'unacknowledged' }, 'acknowledge').ok
+}
+
 /** Applies one event to a point; an event the state does not allow is refused with a reason. */
 export function applyLifecycleEvent(from: AlarmPoint, event: LifecycleEvent): Transition {
   const to = nextPoint(from, event)

@@ -2,7 +2,8 @@
 // unit, the value and the trend behind it, the fold horizon with its band, the rationale's
 // operator action, a link, and the advisory caution.
 import { ADVISORY_CAUTION, priorityRank, type AlarmClass, type Priority } from '../alarms/vocabulary'
-import { duration, number, plantTime } from './format'
+import { formatDuration } from '../utils/duration'
+import { number, plantTime } from './format'
 
 export interface AlarmMailFacts {
   alarmId: number
@@ -51,7 +52,7 @@ export function alarmMailSubject(f: AlarmMailFacts): string {
 
 export function foldLine(fold: AlarmMailFacts['fold']): string {
   if (fold.kind === 'none') return 'Fold horizon: no fold in view (the recovery rate is not falling significantly).'
-  return `Fold horizon: projected in ${duration(fold.seconds)} (band ${duration(fold.lowSeconds)} to ${duration(fold.highSeconds)}).`
+  return `Fold horizon: projected in ${formatDuration(fold.seconds)} (band ${formatDuration(fold.lowSeconds)} to ${formatDuration(fold.highSeconds)}).`
 }
 
 const DECISION_REASON: Record<string, string> = {

@@ -3,7 +3,8 @@
 // first, which of those alarms still stand now.
 import { ADVISORY_CAUTION, priorityRank } from '../alarms/vocabulary'
 import { activationLines, alarmMailSubject, type AlarmMailFacts } from './alarmMail'
-import { duration, number } from './format'
+import { formatDuration } from '../utils/duration'
+import { number } from './format'
 
 export interface HistorySummaryInput {
   siteName: string
@@ -45,5 +46,5 @@ export function renderHistorySummaryMail(input: HistorySummaryInput): { subject:
 
 /** The activation event's comment, so the alarm's trail says why no mail went out. */
 export function historyNoticeComment(ageSeconds: number): string {
-  return `from old history (the sample is ${duration(ageSeconds)} older than its recording): no mail of its own, listed in the site's history summary`
+  return `from old history (the sample is ${formatDuration(ageSeconds)} older than its recording): no mail of its own, listed in the site's history summary`
 }

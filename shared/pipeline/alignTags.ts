@@ -1,5 +1,6 @@
 // Puts a unit's tags on one time grid for the VAR(1) slow-mode fit (docs/science.md §S5), which needs
 // the tags sampled together: each tag's last sample in every cell of the coarsest sample period.
+// The unit page's chart fills its grid differently (shared/utils/unitSlowMode.ts says why).
 
 export interface TagSeries {
   times: ArrayLike<number>

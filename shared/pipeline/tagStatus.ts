@@ -3,10 +3,10 @@
 // "steady", and its indicators are not trusted.
 import type { AlarmClass, AlarmState, TagStatus } from '../alarms/vocabulary'
 import { SETTLING, WARMING_UP, type EvaluationPoint } from './evaluateRecord'
-import { duration, number } from '../notifications/format'
+import { formatDuration } from '../utils/duration'
+import { NO_DATA_PERIODS } from '../utils/tileStatus'
+import { number } from '../notifications/format'
 
-/** Samples stopping for this many sample periods means "no data". */
-export const NO_DATA_PERIODS = 3
 /**
  * A stability-trend p at or below this puts the tag on watch before it is significant (α 0.001).
  * A calibrated p is at most 0.1 on a tenth of a steady tag's looks, so 0.1 kept steady tags on watch.
@@ -24,7 +24,7 @@ export interface StatusInput {
 export function deriveTagStatus(input: StatusInput): { status: TagStatus, reason: string } {
   const silentFor = input.latestTime === null ? Number.POSITIVE_INFINITY : input.now - input.latestTime
   if (silentFor > NO_DATA_PERIODS * input.samplePeriodS)
-    return { status: 'no data', reason: input.latestTime === null ? 'no samples yet' : `no sample for ${duration(silentFor)} (over ${NO_DATA_PERIODS} sample periods)` }
+    return { status: 'no data', reason: input.latestTime === null ? 'no samples yet' : `no sample for ${formatDuration(silentFor)} (over ${NO_DATA_PERIODS} sample periods)` }
   const p = input.latest
   // After a trip, reset or setpoint change the windows restart; that is not a data fault.
   if (p?.quality === SETTLING) return { status: 'watch', reason: 'settling after a step: windows restarted' }
@@ -37,7 +37,7 @@ export function deriveTagStatus(input: StatusInput): { status: TagStatus, reason
   const alert = annunciated.find(a => a.alarmClass === 'alert')
   if (alert) return { status: 'warning', reason: alert.name }
   if (p?.evidence === 'slowing down' && p.fold.kind === 'projected')
-    return { status: 'warning', reason: `slowing down; fold projected in ${duration(p.fold.seconds)}` }
+    return { status: 'warning', reason: `slowing down; fold projected in ${formatDuration(p.fold.seconds)}` }
   if (p?.evidence === 'slowing down') return { status: 'watch', reason: `slowing down (autocorrelation trend p ${number(p.pAr1)})` }
   if (p?.evidence === 'noise level changed') return { status: 'watch', reason: 'noise level changed (variance up without slowing down)' }
   if (p?.pAr1 !== null && p?.pAr1 !== undefined && p.pAr1 <= WATCH_P)

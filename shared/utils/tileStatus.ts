@@ -1,6 +1,6 @@
 import type { TagStatus } from '../alarms/vocabulary'
 
-/** Samples stop for this many sample periods → the tile says "no data" (DESIGN.md brief). */
+/** Samples stop for this many sample periods → "no data", for the tile and the pipeline alike (docs/design.md §D3). */
 export const NO_DATA_PERIODS = 3
 // Gateways post in batches every few seconds, so a 1 s tag's newest sample is routinely a few
 // seconds old; below this floor its tile would flicker to "no data" between batches.

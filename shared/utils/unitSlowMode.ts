@@ -30,8 +30,14 @@ const MIN_WINDOW_POINTS = 60
 const MAX_WINDOW_POINTS = 300
 const HISTORY_POINTS = 120
 
-/** Puts each tag on the common grid by bucket mean, carrying the last value across empty buckets. */
-export function alignOnGrid(tags: readonly TagSamples[], grid: BucketGrid): Float64Array[] {
+/**
+ * Puts each tag on the common grid by bucket mean, carrying the last value across empty buckets.
+ * Not the live fit's alignment (shared/pipeline/alignTags.ts, behind unit alarms), on purpose: the
+ * live fit keeps only cells where every tag reported and takes each tag's last sample, so an alarm
+ * never rests on a carried value; this view fills gaps so a short dropout does not blank the
+ * chart's history. Where every tag has one sample per cell the two agree.
+ */
+export function fillOnBucketGrid(tags: readonly TagSamples[], grid: BucketGrid): Float64Array[] {
   return tags.map((tag) => {
     const { mean } = bucketSamples(tag.times, tag.values, grid)
     let carry = Number.NaN
@@ -59,7 +65,7 @@ export function buildUnitSlowMode(tags: readonly TagSamples[], range: { from: nu
   const grid = { from: range.to - count * gridSeconds, to: range.to, count }
   const gridTimes = Float64Array.from({ length: count }, (_, i) => grid.from + (i + 1) * gridSeconds)
   const spec: DetrendSpec = { kind: 'localLinear', bandwidth: windowPoints * gridSeconds }
-  const residuals = alignOnGrid(withData, grid).map(series => detrend(gridTimes, series, spec).residuals)
+  const residuals = fillOnBucketGrid(withData, grid).map(series => detrend(gridTimes, series, spec).residuals)
   const step = Math.max(1, Math.floor((count - windowPoints) / HISTORY_POINTS))
   const history = { time: [] as number[], recoveryRate: [] as (number | null)[] }
   let newest: ReturnType<typeof slowMode> | null = null

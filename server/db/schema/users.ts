@@ -1,7 +1,8 @@
 import { sql } from 'drizzle-orm'
 import { pgEnum, pgTable, serial, integer, text, timestamp, boolean, index, check } from 'drizzle-orm/pg-core'
+import { ROLES } from '../../../shared/utils/roles'
 
-export const roleEnum = pgEnum('role', ['operator', 'engineer', 'supervisor', 'admin'])
+export const roleEnum = pgEnum('role', ROLES)
 
 export const users = pgTable('users', {
   id: serial('id').primaryKey(),

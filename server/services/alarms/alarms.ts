@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, gte, inArray, lte, ne, sql, type SQL } from 'drizzle-orm'
+import { applyLifecycleEvent } from '#shared/alarms/lifecycle'
 import { PRIORITIES } from '#shared/alarms/vocabulary'
 import type { AlarmListQuery } from '#shared/schemas/alarm'
 import { alarmEvents, alarmRules, alarms, tags, units, users } from '../../db/schema'
@@ -110,12 +111,12 @@ export async function acknowledgeAlarms(db: Db, input: { ids: number[], comment?
       if (done.length > 0) return { replayed: true, alarms: await tx.select().from(alarms).where(inArray(alarms.id, done.map(d => d.alarmId))) }
     }
     const locked = await lockAlarms(tx, input.ids)
-    const refusals = locked.filter(a => a.state !== 'unacknowledged' && a.state !== 'rtn_unacknowledged')
-    if (refusals.length > 0) {
-      throw new AlarmTransitionRefused(refusals.map(a => ({
-        alarmId: a.id, state: a.state, label: alarmLabel(a), reason: 'only an unacknowledged alarm can be acknowledged',
-      })))
-    }
+    // All or none: the lifecycle decides which may be acknowledged, and every refusal is named at once.
+    const refusals = locked.flatMap((a) => {
+      const step = applyLifecycleEvent(a, 'acknowledge')
+      return step.ok ? [] : [{ alarmId: a.id, state: a.state, label: alarmLabel(a), reason: step.reason }]
+    })
+    if (refusals.length > 0) throw new AlarmTransitionRefused(refusals)
     const updated: AlarmRow[] = []
     for (const alarm of locked) updated.push(await transitionAlarm(tx, alarm, 'acknowledge', ctx, { comment: input.comment, requestId: input.requestId }))
     return { replayed: false, alarms: updated }

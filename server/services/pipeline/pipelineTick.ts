@@ -1,6 +1,6 @@
 import { and, eq, isNull, sql } from 'drizzle-orm'
 import { defaultIndicatorSettings } from '#shared/pipeline/indicatorDefaults'
-import { NO_DATA_PERIODS } from '#shared/pipeline/tagStatus'
+import { NO_DATA_PERIODS } from '#shared/utils/tileStatus'
 import { indicatorSettings, tags } from '../../db/schema'
 import { serverEvaluationPool } from './recordEvaluation'
 import { processTagBatch, type BatchOutcome } from './tagProcessing'

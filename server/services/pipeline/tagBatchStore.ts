@@ -32,7 +32,7 @@ export async function storePoints(tx: DbTransaction, byTag: { tagId: number, set
     await tx.insert(indicatorPoints).values(rows.slice(i, i + POINT_ROWS_PER_INSERT)).onConflictDoNothing()
 }
 
-export interface StatusInput {
+export interface TagStatusRow {
   tag: typeof tags.$inferSelect
   latest: EvaluationPoint | null
   latestValue: number
@@ -40,7 +40,7 @@ export interface StatusInput {
 }
 
 /** Derives and upserts the overview status of each tag from its latest evaluation and its open alarms. */
-export async function storeStatuses(tx: DbTransaction, inputs: StatusInput[], now: number): Promise<void> {
+export async function storeStatuses(tx: DbTransaction, inputs: TagStatusRow[], now: number): Promise<void> {
   if (inputs.length === 0) return
   const open = await tx.select({ tagId: alarms.tagId, alarmClass: alarms.alarmClass, state: alarms.state, name: alarmRules.name }).from(alarms)
     .innerJoin(alarmRules, eq(alarmRules.id, alarms.ruleId))

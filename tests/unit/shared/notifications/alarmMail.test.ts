@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { ADVISORY_CAUTION } from '../../../../shared/alarms/vocabulary'
 import { renderAlarmMail, renderDigestMail, type AlarmMailFacts } from '../../../../shared/notifications/alarmMail'
-import { duration, plantTime } from '../../../../shared/notifications/format'
+import { plantTime } from '../../../../shared/notifications/format'
 
 // Invented facts: what is checked is that each required element reaches the text (docs/design.md §D4
 // item 6 lists them; §D1 gives the caution), not any value of the demo plant.
@@ -69,8 +69,5 @@ describe('alarm mail text', () => {
 describe('message formats', () => {
   it('shows plant-local time beside UTC (docs/design.md §D9); Europe/London is UTC+1 in July [common practice]', () => {
     expect(plantTime('2026-07-01T08:00:00.000Z', 'Europe/London')).toBe('2026-07-01 09:00:00 Europe/London (08:00:00 UTC)')
-  })
-  it('writes durations in words', () => {
-    expect([duration(45), duration(900), duration(3900), duration(90_000), duration(-120)]).toEqual(['45 s', '15 min', '1 h 05 min', '1 d 1 h', '−2 min'])
   })
 })

@@ -1,5 +1,4 @@
 import { describe, expect, it } from 'vitest'
-import { formatDuration } from '#shared/utils/duration'
 import { seriesCsv } from '#shared/utils/seriesCsv'
 
 describe('seriesCsv', () => {
@@ -14,9 +13,4 @@ describe('seriesCsv', () => {
   it('keeps only the zoomed range', () => {
     expect(seriesCsv(time, columns, [time[1]!, time[2]!]).trim().split('\n')).toHaveLength(2)
   })
-})
-
-describe('formatDuration', () => {
-  it.each([[40, '40 s'], [720, '12 min'], [7_500, '2 h 05 min'], [273_600, '3 d 4 h'], [-90, '−2 min']])('%i s → %s', (s, text) =>
-    expect(formatDuration(s)).toBe(text))
 })

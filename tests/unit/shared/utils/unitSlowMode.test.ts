@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest'
 import { createRng } from '#shared/analysis/random'
 import { simulateOu } from '#shared/analysis/simulate'
-import { alignOnGrid, buildUnitSlowMode } from '#shared/utils/unitSlowMode'
+import { fillOnBucketGrid, buildUnitSlowMode } from '#shared/utils/unitSlowMode'
 
-describe('alignOnGrid', () => {
+describe('fillOnBucketGrid', () => {
   it('averages per grid step and carries the last value across empty steps', () => {
     const tag = { tagId: 1, samplePeriodS: 1, times: Float64Array.of(0, 0.5, 3.2), values: Float64Array.of(1, 3, 9) }
-    const [series] = alignOnGrid([tag], { from: 0, to: 4, count: 4 })
+    const [series] = fillOnBucketGrid([tag], { from: 0, to: 4, count: 4 })
     expect(Array.from(series!)).toEqual([2, 2, 2, 9])
   })
 })
