@@ -6,8 +6,7 @@ export default defineEventHandler(async (event) => {
   const rule = await useDb().transaction(async (tx) => {
     const created = await createRule(tx, input, user.id).catch((err) => {
       if (err instanceof RuleTargetMissing) throw createError({ statusCode: 400, message: err.message })
-      if (sqlState(err) === UNIQUE_VIOLATION) throw createError({ statusCode: 409, message: `name: a rule called "${input.name}" already exists on this site` })
-      throw err
+      throw constraintHttpError(err, { duplicate: `name: a rule called "${input.name}" already exists on this site` })
     })
     await writeAudit(tx, { userId: user.id, action: 'alarm_rule.create', target: created.name, detail: { id: created.id, ...input }, address: clientAddress(event) })
     return created
