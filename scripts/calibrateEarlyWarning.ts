@@ -9,7 +9,7 @@
 import { existsSync, readFileSync, writeFileSync } from 'node:fs'
 import { INACTIVE, stepCondition } from '../shared/alarms/conditionTracker'
 import { evaluateRecord } from '../shared/pipeline/evaluateRecord'
-import { defaultIndicatorSettings, EARLY_WARNING_DELAYS, slidingLookAlpha } from '../shared/pipeline/indicatorDefaults'
+import { defaultIndicatorSettings, EARLY_WARNING_DELAYS, slidingLookAlpha, trendWindowGrowing } from '../shared/pipeline/indicatorDefaults'
 import { studyRecords, type StudyRecord } from './bench/detectionStudy/recordSets'
 import { wilson } from './bench/detectionStudy/stats'
 
@@ -51,18 +51,20 @@ function looksOf(record: StudyRecord): Look[] {
   }))
 }
 
+/** α of a sliding look for the candidate's budget (settings.alpha is 1 here, so no cap applies). */
+const slidingAlphaOf = (candidate: Candidate) => slidingLookAlpha(settings, 1, candidate.budgetPerTagDay)
+
 /** Raises of the rule over one record's looks, with the live rule's condition tracker. */
-function raises(looks: readonly Look[], candidate: Candidate): number[] {
+function raises(looks: readonly Look[], candidate: Candidate, slidingAlpha: number): number[] {
   const interval = settings.evaluateEvery
   const condition = {
     comparison: 'above' as const, threshold: 0.5, deadband: 0,
     onDelayS: candidate.onDelay * interval, offDelayS: EARLY_WARNING_DELAYS.offDelayEvaluations * interval,
   }
-  const slidingAlpha = slidingLookAlpha({ ...settings, alpha: 1 }, 1, candidate.budgetPerTagDay)
   let state = INACTIVE
   const times: number[] = []
   for (const look of looks) {
-    const alpha = look.trendSamples < settings.trendWindowSamples ? candidate.expandingAlpha : slidingAlpha
+    const alpha = trendWindowGrowing(settings, look.trendSamples) ? candidate.expandingAlpha : slidingAlpha
     const step = stepCondition(condition, state, look.time, look.risingTogether && look.p <= alpha ? 1 : 0)
     state = step.state
     if (step.change === 'activate') times.push(look.time)
@@ -103,9 +105,10 @@ const pct = (k: number, n: number) => {
 }
 
 function report(groups: readonly Group[], candidate: Candidate): void {
-  console.log(`\nexpanding α ${candidate.expandingAlpha}, sliding budget ${candidate.budgetPerTagDay}/tag-day (look α ${slidingLookAlpha({ ...settings, alpha: 1 }, 1, candidate.budgetPerTagDay).toExponential(1)} at 1 s), on-delay ${candidate.onDelay}`)
+  const slidingAlpha = slidingAlphaOf(candidate)
+  console.log(`\nexpanding α ${candidate.expandingAlpha}, sliding budget ${candidate.budgetPerTagDay}/tag-day (look α ${slidingAlpha.toExponential(1)} at 1 s), on-delay ${candidate.onDelay}`)
   for (const g of groups) {
-    const perRecord = g.looks.map(l => raises(l, candidate))
+    const perRecord = g.looks.map(l => raises(l, candidate, slidingAlpha))
     const alerted = perRecord.filter(r => r.length > 0).length
     const total = perRecord.reduce((s, r) => s + r.length, 0)
     const rate = g.length === 'long' && !g.forced ? `  ${(1000 * total / (g.samples / DAY_S)).toFixed(0)} per 1,000 tag-days at 1 s` : ''

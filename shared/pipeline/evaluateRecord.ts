@@ -13,7 +13,7 @@ import { checkQuality, DEFAULT_QUALITY_LIMITS } from '../analysis/quality'
 import { createRng } from '../analysis/random'
 import { segmentedResiduals } from '../analysis/segmentedResiduals'
 import { stabilityTrendTest } from '../analysis/stabilityTrend'
-import { slidingLookAlpha, type IndicatorSettings } from './indicatorDefaults'
+import { slidingLookAlpha, trendWindowGrowing, type IndicatorSettings } from './indicatorDefaults'
 
 export interface EvaluationPoint {
   /** Seconds since the epoch: the newest sample of the window. */
@@ -152,7 +152,7 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, usableFrom: Int
  * spends the tag's false-alert budget per day instead (indicatorDefaults.ts slidingLookAlpha).
  */
 function lookAlpha(settings: IndicatorSettings, samplePeriodS: number, trendSamples: number): number {
-  return trendSamples < settings.trendWindowSamples ? settings.alpha : slidingLookAlpha(settings, samplePeriodS)
+  return trendWindowGrowing(settings, trendSamples) ? settings.alpha : slidingLookAlpha(settings, samplePeriodS)
 }
 
 /**

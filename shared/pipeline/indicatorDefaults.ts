@@ -46,6 +46,10 @@ export function defaultIndicatorSettings(samplePeriodS: number): IndicatorSettin
   }
 }
 
+/** Whether a trend window of this many usable samples is still growing (its looks are nested). */
+export const trendWindowGrowing = (settings: Pick<IndicatorSettings, 'trendWindowSamples'>, trendSamples: number) =>
+  trendSamples < settings.trendWindowSamples
+
 /** Seconds between two evaluations of a tag's trend tests. */
 export const evaluationIntervalS = (settings: Pick<IndicatorSettings, 'evaluateEvery'>, samplePeriodS: number) =>
   settings.evaluateEvery * samplePeriodS
