@@ -57,5 +57,7 @@ describe('times on screens', () => {
     expect(ageText('2026-07-01T05:55:00Z', now)).toBe('2 h 05 min ago')
     expect(ageText('2026-07-01T07:59:55Z', now)).toBe('just now')
     expect(ageText('2026-07-01T08:05:00Z', now)).toBe('in 5 min')
+    // 7,199 s is 119.98 min: rounded once it is 2 h 00 min, not "1 h 60 min".
+    expect(ageText(new Date(now - 7_199_000), now)).toBe('2 h 00 min ago')
   })
 })
