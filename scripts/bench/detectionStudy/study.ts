@@ -10,7 +10,7 @@ import { BENCH_MODELS, characteristicTime } from './models'
 import { MAX_STOP_TAU, RECORD_SAMPLES, studyRecords, type SetCounts } from './recordSets'
 import { PRODUCT_ALPHA, scoreRecord, type ProcedureBudget, type RecordOutcome } from './scoreRecord'
 import {
-  printDetection, printDiscrimination, printFalsePositives, printLeadTimes, printMisses, printNoFoldOnNulls,
+  printDetection, printDetectionByDistance, printDiscrimination, printFalsePositives, printLeadTimes, printMisses, printNoFoldOnNulls,
   printStreamRates, printTipProjections,
 } from './tables'
 
@@ -65,6 +65,7 @@ export async function runStudy(quick: boolean): Promise<void> {
   for (const record of studyRecords(plan.counts)) outcomes.push(scoreRecord(record, plan.budget))
   printDiscrimination(outcomes)
   printDetection(outcomes)
+  printDetectionByDistance(outcomes)
   printFalsePositives(outcomes)
   printLeadTimes(outcomes)
   printTipProjections(outcomes)
