@@ -37,6 +37,8 @@ export default defineNuxtConfig({
     session: { maxAge: 60 * 60 * 12 },
     // Inactivity limit beside the 12 h absolute one (NIST SP 800-63B AAL2: 30 minutes).
     sessionIdleMinutes: 30,
+    // How far ahead of this server's clock a sample may be stamped (NUXT_INGEST_MAX_FUTURE_SKEW_S).
+    ingest: { maxFutureSkewS: 300 },
   },
   nitro: {
     preset: 'node-server',

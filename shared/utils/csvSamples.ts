@@ -1,7 +1,7 @@
 // One CSV record → the {tag, time, value, quality} items that POST /api/ingest takes, so uploaded
 // history passes the same per-sample rules (validateSamples) as live data.
 import type { CsvFormat } from './csvLayout'
-import { validateSamples, type ValidSample } from './sampleBatch'
+import { validateSamples, type SampleClock, type TagBounds, type ValidSample } from './sampleBatch'
 import { parseWallClock, wallClockToUtc } from './zonedTime'
 
 export interface ColumnPlan {
@@ -47,6 +47,8 @@ export function planColumns(header: string[], mapping: {
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/
 const EPOCH = /^-?\d+(\.\d+)?$/
+// The shape of a zone-less wall-clock time, whether or not its fields make a real date.
+const WALL_CLOCK_SHAPE = /^\d{4}-\d{2}-\d{2}[T ]\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?$/
 export const TIME_FORMAT_REASON = 'must be an ISO 8601 date-time (e.g. 2026-05-01 12:00:00, read in the chosen time zone, '
   + 'or with an offset such as Z or +01:00) or epoch milliseconds'
 
@@ -55,6 +57,7 @@ export function csvTime(cell: string, timeZone: string): { time: number | string
   if (!cell) return { reason: 'is empty' }
   if (EPOCH.test(cell)) return { time: Number(cell) }
   const wall = parseWallClock(cell)
+  if (wall === null && WALL_CLOCK_SHAPE.test(cell)) return { reason: `${cell} is not a real date and time (day, month, hour, minute or second out of range)` }
   if (wall === null) return { time: cell }
   const utc = wallClockToUtc(wall, timeZone)
   if (utc.ok) return { time: utc.utcMs }
@@ -102,13 +105,13 @@ export function recordToSamples(record: string[], line: number, plan: ColumnPlan
 }
 
 /** validateSamples over a batch, with each refusal traced back to its line and column. */
-export function validatePending(pending: readonly PendingSample[], knownTag: (code: string) => boolean) {
-  const { valid, rejected } = validateSamples(pending.map(p => p.item), knownTag)
+export function validatePending(pending: readonly PendingSample[], tagOf: (code: string) => TagBounds | undefined, clock: SampleClock) {
+  const { valid, rejected } = validateSamples(pending.map(p => p.item), tagOf, clock)
   const rejections: LineRejection[] = rejected.map(({ index, field, reason }) => {
     const p = pending[index]!
     const f = field as Field
     // validateSamples words these for a gateway's JSON; say them the way a CSV file reads.
-    if (f === 'time' && typeof p.item.time === 'string') reason = TIME_FORMAT_REASON
+    if (f === 'time' && reason.startsWith('must be ISO')) reason = TIME_FORMAT_REASON
     if (f === 'tag' && p.raw.tag) reason = `unknown tag code ${JSON.stringify(p.raw.tag)} at this site`
     return { line: p.line, column: p.columns[f] ?? '', value: p.raw[f] ?? '', reason }
   })

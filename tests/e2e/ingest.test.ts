@@ -102,6 +102,48 @@ describe('POST /api/ingest', () => {
     expect(list.body.find((g: { id: number }) => g.id === gw.id)).toMatchObject({ rejectedCount: 1, acceptedCount: 0 })
   })
 
+  it('reports a conflicting duplicate (same tag and time, another value) as a conflict and keeps the stored reading', async () => {
+    const gw = await createTestGateway('conflicting-gateway')
+    const t = T0 + 7_200_000
+    expect((await ingest(gw.key, { samples: [{ tag: 'TI-401', time: t, value: 20 }] })).body).toMatchObject({ accepted: 1 })
+    const res = await ingest(gw.key, { samples: [
+      { tag: 'TI-401', time: t, value: 20 },
+      { tag: 'TI-401', time: t, value: 25 },
+      { tag: 'TI-401', time: t + 5000, value: 21 },
+      { tag: 'TI-401', time: t + 5000, value: 22 },
+    ] })
+    expect(res.status).toBe(200)
+    expect(res.body).toMatchObject({ accepted: 1, duplicates: 1, conflicts: 2 })
+    expect(res.body.rejected.map((r: { index: number, field: string }) => [r.index, r.field])).toEqual([[1, 'value'], [3, 'value']])
+    expect(res.body.rejected[0].reason).toMatch(/conflicts with the reading already stored .*value 20.*this one 25/)
+    const stored = await sql`select value from samples s join tags t on t.id = s.tag_id where t.code = 'TI-401' and s.time in (${new Date(t)}, ${new Date(t + 5000)}) order by s.time`
+    expect(stored.map(r => r.value)).toEqual([20, 21])
+    const list = await call('/api/admin/gateways', { cookie: gw.adminCookie })
+    expect(list.body.find((g: { id: number }) => g.id === gw.id)).toMatchObject({ acceptedCount: 2, duplicateCount: 1, rejectedCount: 2 })
+  })
+
+  it('refuses impossible dates, implausible years and values beyond a ranged tag\'s physical bound, storing nothing', async () => {
+    const { key } = await createTestGateway('careless-gateway')
+    const res = await ingest(key, { samples: [
+      { tag: 'TI-401', time: '2026-02-30T00:00:00Z', value: 20 },
+      { tag: 'TI-401', time: '1970-01-01T00:00:00Z', value: 20 },
+      { tag: 'TI-401', time: '2999-01-01T00:00:00Z', value: 20 },
+      { tag: 'TI-401', time: '9999-12-31T23:59:59Z', value: 20 },
+      { tag: 'TI-401', time: T0 + 9_000_000, value: 1e308 },
+      { tag: 'TI-401', time: T0 + 9_005_000, value: -1e308 },
+    ] })
+    expect(res.status).toBe(200)
+    expect(res.body.accepted).toBe(0)
+    expect(res.body.rejected.map((r: { field: string }) => r.field)).toEqual(['time', 'time', 'time', 'time', 'value', 'value'])
+    expect(res.body.rejected[0].reason).toMatch(/not a real date/)
+    expect(res.body.rejected[1].reason).toMatch(/before 2000-01-01/)
+    expect(res.body.rejected[4].reason).toMatch(/physical bound/)
+    expect(await countFor('TI-401', Date.UTC(2026, 2, 2), Date.UTC(2026, 2, 2, 1))).toBe(0)
+    expect(await countFor('TI-401', T0 + 9_000_000, T0 + 9_005_000)).toBe(0)
+    const [far] = await sql`select count(*)::int as n from samples where time > now() + interval '1 day' or time < '2000-01-01'`
+    expect(far!.n).toBe(0)
+  })
+
   it('gives a gateway name conflict a 409 and a bad site a 400 naming the field', async () => {
     const gw = await createTestGateway('unique-gateway')
     const sites = await call('/api/sites', { cookie: gw.adminCookie })

@@ -146,10 +146,12 @@ describe('POST /api/uploads/import', () => {
         if (i >= ROWS) return controller.close()
         let chunk = ''
         for (const end = Math.min(ROWS, i + 10_000); i < end; i++)
-          chunk += `${start + Math.floor(i / TAGS.length) * 1000},${TAGS[i % TAGS.length]},${(i % 997) / 10}\n`
+          // Values 0–0.996: inside every one of these tags' ranges (EI-301 reads 0–1.2 pu).
+          chunk += `${start + Math.floor(i / TAGS.length) * 1000},${TAGS[i % TAGS.length]},${(i % 997) / 1000}\n`
         controller.enqueue(encoder.encode(chunk))
       },
     })
+    // No time limit asserted: the suite runs on a loaded 2-core machine (throughput is the bench's).
     const res = await importCsv(body, { format: 'long', timeColumn: 'time', tagColumn: 'tag', valueColumn: 'value' })
     expect(res.summary).toMatchObject({ rowsRead: ROWS, stored: ROWS, duplicates: 0, rejectedCount: 0, batchesCommitted: ROWS / 5_000 })
     expect(res.events.filter(e => e.type === 'progress').map(e => (e as { rowsRead: number }).rowsRead))

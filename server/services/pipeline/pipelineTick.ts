@@ -10,6 +10,7 @@ import { StageClock } from './stageClock'
 import { expireShelves } from '../alarms/alarms'
 import { refreshSlowModes } from './slowModeRefresh'
 import { isDatabaseUnavailable } from '../../utils/dbUnavailable'
+import { sampleClock } from '../ingest/sampleClock'
 
 /** Tags claimed and stored together in one transaction: round trips are per batch, not per tag. */
 const TAG_BATCH_SIZE = 50
@@ -37,12 +38,14 @@ export interface TickReport {
  */
 export async function runPipelineTick(db: Db, ctx: ChangeContext, clock = new StageClock()): Promise<TickReport> {
   const started = performance.now()
+  const horizon = analysisHorizon()
   const candidates = await clock.run('claim', async () => {
     await ensureTagRows(db)
+    await recoverClaimsAhead(db, horizon)
     const rows = await db.execute<{ tag_id: number }>(sql`
       select st.tag_id from tag_analysis_state st join tags t on t.id = st.tag_id
       where t.watched and exists (select 1 from samples s where s.tag_id = st.tag_id
-        and s.time > coalesce(st.last_sample_time, '-infinity'::timestamptz))
+        and s.time > coalesce(st.last_sample_time, '-infinity'::timestamptz) and s.time <= ${horizon.toISOString()}::timestamptz)
       order by st.tag_id`)
     return rows.map(r => Number(r.tag_id))
   })
@@ -59,7 +62,7 @@ export async function runPipelineTick(db: Db, ctx: ChangeContext, clock = new St
   const worker = async () => {
     while (cursor < batches.length) {
       const batch = batches[cursor++]!
-      await processIsolated(db, batch, ctx, clock, count)
+      await processIsolated(db, batch, ctx, clock, count, horizon)
     }
   }
   await Promise.all(Array.from({ length: BATCH_CONCURRENCY }, worker))
@@ -75,15 +78,48 @@ export async function runPipelineTick(db: Db, ctx: ChangeContext, clock = new St
  * Processes a batch; when it fails, its tags are retried one by one so one tag's failure does not
  * stop the others. A failed tag's claim did not move, so the next tick retries it.
  */
-async function processIsolated(db: Db, tagIds: number[], ctx: ChangeContext, clock: StageClock, count: (tagIds: number[], done: BatchOutcome) => void) {
+async function processIsolated(db: Db, tagIds: number[], ctx: ChangeContext, clock: StageClock, count: (tagIds: number[], done: BatchOutcome) => void, horizon: Date) {
   try {
-    count(tagIds, await processTagBatch(db, tagIds, ctx, clock))
+    count(tagIds, await processTagBatch(db, tagIds, ctx, clock, horizon))
   }
   catch (err) {
     if (isDatabaseUnavailable(err)) throw err
     if (tagIds.length === 1) console.error(`[pipeline] tag ${tagIds[0]}:`, err)
-    else for (const tagId of tagIds) await processIsolated(db, [tagId], ctx, clock, count)
+    else for (const tagId of tagIds) await processIsolated(db, [tagId], ctx, clock, count, horizon)
   }
+}
+
+/**
+ * The newest sample time a tick reads: now plus the ingest skew allowance. Ingest refuses later
+ * times, but a row stored before that check (or written straight into the table) must not move a
+ * tag's claim into the future, where every later, correct sample would sort before it and the tag
+ * would never be analysed again.
+ */
+export function analysisHorizon(nowMs = Date.now()): Date {
+  const { nowMs: now, maxFutureMs } = sampleClock(nowMs)
+  return new Date(now + maxFutureMs)
+}
+
+/**
+ * Tags whose claim already stands beyond the horizon (a future-dated sample processed before the
+ * horizon existed) restart from their newest indicator point before it: the points and status
+ * past the horizon were computed from the bad sample and are dropped, and the samples after the
+ * restart point are analysed again. Logged, so the recovery shows in the server log.
+ */
+async function recoverClaimsAhead(db: Db, horizonDate: Date): Promise<void> {
+  const horizon = horizonDate.toISOString()
+  const recovered = await db.execute<{ tag_id: number }>(sql`
+    with ahead as (
+      select st.tag_id from tag_analysis_state st where st.last_sample_time > ${horizon}::timestamptz for update skip locked),
+    dropped as (
+      delete from indicator_points p using ahead where p.tag_id = ahead.tag_id and p.time > ${horizon}::timestamptz)
+    update tag_analysis_state st set updated_at = now(), samples_since_evaluation = 0,
+      last_sample_time = restart.time, last_evaluated_time = restart.time
+    from ahead cross join lateral (
+      select max(p.time) as time from indicator_points p where p.tag_id = ahead.tag_id and p.time <= ${horizon}::timestamptz) restart
+    where st.tag_id = ahead.tag_id
+    returning st.tag_id`)
+  if (recovered.length > 0) console.warn(`[pipeline] tags ${recovered.map(r => r.tag_id).join(', ')}: claim stood beyond ${horizon} (future-dated sample); restarted from the newest indicator point before it`)
 }
 
 /** Claim rows, default settings and a first status for tags the pipeline has not seen yet. */

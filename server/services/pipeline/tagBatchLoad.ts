@@ -38,12 +38,12 @@ export async function claimTags(tx: DbTransaction, tagIds: number[]): Promise<Ta
 }
 
 /**
- * Each claimed tag's new samples after its claim (bad-quality readings left out) and, for the
+ * Each claimed tag's new samples after its claim up to the horizon (bad-quality readings left out) and, for the
  * tags whose batch reaches an evaluation, the history before it: two statements for the batch.
  */
-export async function loadRecords(tx: DbTransaction, claims: TagClaim[]): Promise<TagRecord[]> {
+export async function loadRecords(tx: DbTransaction, claims: TagClaim[], horizon: Date): Promise<TagRecord[]> {
   const fresh = await sampleWindows(tx, 'oldest', claims.map(c => ({
-    tagId: c.tag.id, after: c.claim.lastSampleTime, until: null, limit: MAX_NEW_SAMPLES_PER_TICK,
+    tagId: c.tag.id, after: c.claim.lastSampleTime, until: horizon, limit: MAX_NEW_SAMPLES_PER_TICK,
   })))
   // History is only needed when this batch reaches an evaluation; most ticks only carry new samples.
   const needHistory = claims.filter((c) => {

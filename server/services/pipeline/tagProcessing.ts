@@ -29,15 +29,16 @@ interface EvaluatedTag extends TagRecord {
  * instance may hold some), load their new samples and the history the windows need, evaluate,
  * store the indicator points, run their rules, refresh their status and move their claims
  * forward. Every step is one statement for the whole batch, so round trips do not grow with it.
- * A crash anywhere leaves the tags exactly as before, and the next tick redoes them.
+ * A crash anywhere leaves the tags exactly as before, and the next tick redoes them. Samples
+ * stamped after `horizon` (now plus the skew allowance) wait: they never move a claim ahead.
  */
-export async function processTagBatch(db: Db, tagIds: number[], ctx: ChangeContext, clock: StageClock, now = Date.now() / 1000): Promise<BatchOutcome> {
+export async function processTagBatch(db: Db, tagIds: number[], ctx: ChangeContext, clock: StageClock, horizon: Date, now = Date.now() / 1000): Promise<BatchOutcome> {
   return db.transaction(async (tx) => {
     // A batch statement's estimated cost (rows per tag × tags) crosses jit_above_cost, and
     // compiling it takes far longer than running these index probes.
     await tx.execute(sql`set local jit = off`)
     const claims = await claimTags(tx, tagIds)
-    const records = claims.length === 0 ? [] : await clock.run('load samples', () => loadRecords(tx, claims))
+    const records = claims.length === 0 ? [] : await clock.run('load samples', () => loadRecords(tx, claims, horizon))
     const active = records.filter(r => r.newCount > 0)
     const outcome = { claimed: claims.length, samples: 0, evaluations: 0 }
     if (active.length === 0) return outcome

@@ -6,6 +6,8 @@ import type { UploadEvent, UploadSummary } from '#shared/types/upload'
 import type { CsvSource } from './csvSource'
 import type { Db } from '../../utils/db'
 import { storeUploadedSamples, tagIdsByCode } from '../ingest/ingest'
+import type { SiteTag } from '../ingest/ingest'
+import { sampleClock } from '../ingest/sampleClock'
 
 /** A progress line after this many rows: often enough for a bar, rare enough to be free. */
 export const PROGRESS_EVERY_ROWS = 50_000
@@ -30,7 +32,7 @@ export async function* importCsvRecords(db: Db, input: {
   const { source, plan, siteId, timeZone, dryRun } = input
   const started = Date.now()
   const summary = emptySummary(dryRun)
-  const tagIds = new Map<string, number>()
+  const tagIds = new Map<string, SiteTag>()
   const unknownTags = new Set<string>()
   let pending: PendingSample[] = []
 
@@ -55,12 +57,18 @@ export async function* importCsvRecords(db: Db, input: {
         else unknownTags.add(code)
       }
     }
-    const { valid, rejections } = validatePending(batch, code => tagIds.has(code))
+    // Files carry history: the same clock bound as live data refuses times in the future.
+    const { valid, rejections } = validatePending(batch, code => tagIds.get(code), sampleClock())
     rejections.forEach(reject)
     for (const s of valid) summary.tags[s.tag] = (summary.tags[s.tag] ?? 0) + 1
     summary.valid += valid.length
     if (dryRun || valid.length === 0) return
-    const { accepted, duplicates } = await storeUploadedSamples(db, valid, tagIds)
+    const { accepted, duplicates, conflicts } = await storeUploadedSamples(db, valid, tagIds)
+    for (const c of conflicts) {
+      const p = batch[c.index]!
+      reject({ line: p.line, column: p.columns.value, value: p.raw.value, reason: c.reason })
+    }
+    summary.valid -= conflicts.length
     summary.stored += accepted
     summary.duplicates += duplicates
     summary.batchesCommitted++
