@@ -1,4 +1,4 @@
-import { writeFileSync, mkdtempSync } from 'node:fs'
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -45,15 +45,16 @@ describe('engineer uploads historian CSV', () => {
     await screenshot(page, 'engineer-upload-preview')
 
     await page.getByRole('button', { name: 'Dry run' }).click()
-    const rejected = page.getByRole('table', { name: 'Rejected lines' })
+    const rejected = page.getByRole('table', { name: 'Rejections by reason' })
     await rejected.waitFor()
-    await expect.poll(() => rejected.locator('tbody tr').first().textContent()).toContain('5')
+    await expect.poll(() => rejected.locator('tbody tr').first().textContent()).toContain('line 5')
     expect(await rejected.locator('tbody tr').first().textContent()).toContain('unknown tag code "XX-900"')
     expect(await page.getByTestId('upload-summary').textContent()).toContain('Samples that would be stored3')
+    expect(await page.getByTestId('upload-outcome').textContent()).toBe('Dry run: 3 samples would be stored, 1 rejected. Nothing was stored.')
     await screenshot(page, 'engineer-upload-dry-run')
 
     await page.getByRole('button', { name: 'Import', exact: true }).click()
-    await page.getByText('Samples stored').waitFor()
+    await page.getByText('Samples stored', { exact: true }).waitFor()
     const summary = page.getByTestId('upload-summary')
     await expect.poll(() => summary.textContent()).toContain('Samples stored3')
     expect(await page.getByRole('progressbar', { name: 'Uploaded' }).getAttribute('aria-valuenow')).toBe('100')
@@ -67,6 +68,40 @@ describe('engineer uploads historian CSV', () => {
       ['TI-401', '2025-08-04T13:00:00.000Z', 38.2, 0],
       ['TI-401', '2025-08-04T13:00:05.000Z', 38.3, 0],
     ])
+    await page.close()
+  })
+
+  it('says plainly when nothing was stored, groups the rejections by reason and offers to add the unknown tag', async () => {
+    const lines = Array.from({ length: 40 }, (_, i) => `2025-08-04T15:00:${String(i).padStart(2, '0')}Z,XX-901,${i}`)
+    const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'wrong-site.csv')
+    writeFileSync(file, ['time,tag,value', ...lines, '2025-08-04 25:00:00,TI-401,1'].join('\n'))
+    await context.clearCookies()
+    const page = await context.newPage()
+    await signInThroughForm(page, 'engineer')
+    await page.goto(url('/upload'))
+    await page.getByLabel('Historian CSV file').setInputFiles(file)
+    await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
+    await page.getByRole('button', { name: 'Import', exact: true }).click()
+    const outcome = page.getByTestId('upload-outcome')
+    await expect.poll(() => outcome.textContent()).toBe('Nothing was stored: every one of the 41 rows was rejected.')
+    const rows = page.getByRole('table', { name: 'Rejections by reason' }).locator('tbody tr')
+    expect(await rows.count()).toBe(2)
+    expect(await rows.first().textContent()).toContain('unknown tag code "XX-901" at this site')
+    expect((await rows.first().locator('td').nth(1).textContent())?.trim()).toBe('40')
+    // Three examples per reason, not forty rows.
+    expect(await rows.first().getByText(/^line \d+/).count()).toBe(3)
+    expect(await outcome.isVisible()).toBe(true)
+    await screenshot(page, 'engineer-upload-all-rejected')
+
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: /rejected lines \(CSV\)/ }).click()])
+    expect(download.suggestedFilename()).toBe('wrong-site-rejected-lines.csv')
+    const csv = readFileSync((await download.path())!, 'utf8').split('\r\n')
+    expect(csv[0]).toBe('line,column,value,reason')
+    expect(csv.length).toBe(1 + 41 + 1)
+
+    await page.getByRole('link', { name: 'Add tag XX-901 in the workbench' }).click()
+    await page.getByRole('heading', { name: 'Workbench · plant model' }).waitFor()
+    await expect.poll(() => page.locator('input[name="tag-code"]').last().inputValue()).toBe('XX-901')
     await page.close()
   })
 
