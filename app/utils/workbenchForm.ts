@@ -2,12 +2,6 @@
 export const FIELD_CLASS = 'mt-1 block w-full rounded border border-surface-line bg-surface px-2 py-1'
 export const LABEL_CLASS = 'block text-sm'
 
-/** "14:03:00 Europe/London": a plant-local time with its zone named (stored times are UTC). */
-export function formatPlantTime(iso: string | Date | null | undefined, timeZone: string): string {
-  if (!iso) return '—'
-  return `${formatTime(typeof iso === 'string' ? iso : iso.toISOString(), timeZone)} ${timeZone}`
-}
-
 /** The fields of `after` that differ from `before`: what an edit form sends as its patch. */
 export function changedOnly<T extends Record<string, unknown>>(before: Partial<T>, after: T): Partial<T> {
   return Object.fromEntries(Object.entries(after).filter(([k, v]) => JSON.stringify(before[k]) !== JSON.stringify(v))) as Partial<T>
