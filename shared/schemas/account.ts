@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { textField } from './fields'
 import { ROLES } from '../utils/roles'
 
 /**
@@ -14,20 +15,19 @@ export const PASSWORD_MAX = 128
 export const normalisePassword = (p: string) => p.normalize('NFKC')
 const codePoints = (p: string) => [...normalisePassword(p)].length
 
-export const newPasswordField = z.string({ required_error: 'is required', invalid_type_error: 'must be text' })
+export const newPasswordField = textField()
   .refine(p => codePoints(p) >= PASSWORD_MIN, `must have at least ${PASSWORD_MIN} characters (a few words make a good one)`)
   .refine(p => codePoints(p) <= PASSWORD_MAX, `must have at most ${PASSWORD_MAX} characters`)
-  .refine(p => !p.includes('\u0000'), 'must not contain a NUL character')
 
 const roleField = z.enum(ROLES, { errorMap: () => ({ message: `must be one of ${ROLES.join(', ')}` }) })
 
-const nameField = z.string({ required_error: 'is required' }).trim()
+const nameField = textField().trim()
   .min(2, 'must have at least 2 characters').max(80, 'must have at most 80 characters')
   // eslint-disable-next-line no-control-regex -- matching control characters is the point of this check
   .refine(s => !/[\u0000-\u001f]/.test(s), 'must not contain control characters')
 
 export const userCreateSchema = z.object({
-  email: z.string({ required_error: 'is required' }).trim().toLowerCase().email('must be an e-mail address').max(254, 'is too long'),
+  email: textField().trim().toLowerCase().email('must be an e-mail address').max(254, 'is too long'),
   name: nameField,
   role: roleField,
 })
@@ -41,11 +41,11 @@ export const userUpdateSchema = z.object({
 export type UserUpdate = z.infer<typeof userUpdateSchema>
 
 export const setPasswordSchema = z.object({
-  token: z.string({ required_error: 'is required' }).regex(/^[A-Za-z0-9_-]{43}$/, 'is not a valid link token'),
+  token: textField().regex(/^[A-Za-z0-9_-]{43}$/, 'is not a valid link token'),
   password: newPasswordField,
 })
 
 export const changePasswordSchema = z.object({
-  currentPassword: z.string({ required_error: 'is required' }).min(1, 'is required').max(200, 'is too long'),
+  currentPassword: textField().min(1, 'is required').max(200, 'is too long'),
   newPassword: newPasswordField,
 })

@@ -1,10 +1,10 @@
 import { z } from 'zod'
+import { dbId, textField, timeField } from './fields'
 import { ALARM_STATES, PRIORITIES } from '../alarms/vocabulary'
 
-const id = z.coerce.number({ invalid_type_error: 'must be a number' }).int().positive('must be a positive id')
-const comment = z.string({ invalid_type_error: 'must be text' }).trim().max(1000, 'must have at most 1000 characters')
-const time = z.coerce.date({ invalid_type_error: 'must be an ISO 8601 time' })
-  .refine(d => !Number.isNaN(d.getTime()), 'must be an ISO 8601 time')
+const id = dbId()
+const comment = textField().trim().max(1000, 'must have at most 1000 characters')
+const time = timeField()
 
 export const alarmListQuerySchema = z.object({
   view: z.enum(['active', 'history'], { errorMap: () => ({ message: 'must be active or history' }) }).default('active'),
@@ -17,15 +17,13 @@ export const alarmListQuerySchema = z.object({
 }).refine(q => !q.from || !q.to || q.from < q.to, { path: ['to'], message: 'must be after from' })
 export type AlarmListQuery = z.infer<typeof alarmListQuerySchema>
 
-export const alarmIdParamsSchema = z.object({ id })
-
 export const acknowledgeSchema = z.object({
   ids: z.array(id, { required_error: 'is required (a list of alarm ids)', invalid_type_error: 'must be a list of alarm ids' })
     .min(1, 'must name at least one alarm').max(200, 'must name at most 200 alarms')
     .refine(ids => new Set(ids).size === ids.length, 'must not repeat an alarm'),
   comment: comment.optional(),
   /** Sent again with a retried request, so an acknowledgement that did land is not refused. */
-  requestId: z.string({ invalid_type_error: 'must be text' }).trim().min(8, 'must have at least 8 characters').max(100).optional(),
+  requestId: textField().trim().min(8, 'must have at least 8 characters').max(100).optional(),
 })
 export type AcknowledgeInput = z.infer<typeof acknowledgeSchema>
 
@@ -33,7 +31,7 @@ export type AcknowledgeInput = z.infer<typeof acknowledgeSchema>
 export const MAX_SHELVE_MINUTES = 720
 
 export const shelveSchema = z.object({
-  reason: z.string({ required_error: 'is required', invalid_type_error: 'must be text' }).trim().min(3, 'must have at least 3 characters').max(1000),
+  reason: textField().trim().min(3, 'must have at least 3 characters').max(1000),
   minutes: z.number({ required_error: 'is required', invalid_type_error: 'must be a number of minutes' })
     .int('must be whole minutes').min(1, 'must be at least 1').max(MAX_SHELVE_MINUTES, `must be at most ${MAX_SHELVE_MINUTES}`),
 })

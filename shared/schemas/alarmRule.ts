@@ -1,10 +1,11 @@
 import { z } from 'zod'
+import { dbId, textField } from './fields'
 import { ALARM_CLASSES, COMPARISONS, PRIORITIES, RULE_MODES, TAG_MEASURES, TARGET_KINDS, UNIT_MEASURES } from '../alarms/vocabulary'
 
-const id = z.coerce.number({ invalid_type_error: 'must be a number' }).int().positive('must be a positive id')
+const id = dbId()
 // ISA-18.2 rationalization: an alarm without a documented consequence, cause and operator action
 // is not an alarm, so each field is required and may not be blank.
-const rationale = z.string({ required_error: 'is required (ISA-18.2 rationalization)', invalid_type_error: 'must be text' })
+const rationale = textField({ required: 'is required (ISA-18.2 rationalization)' })
   .trim().min(1, 'must not be empty (ISA-18.2 rationalization)').max(2000, 'must have at most 2000 characters')
 const seconds = z.number({ invalid_type_error: 'must be a number of seconds' }).finite().min(0, 'must be 0 or more').max(86_400, 'must be at most 86400 s (a day)')
 
@@ -14,7 +15,7 @@ const timeToRespond = z.number({ required_error: 'is required (ISA-18.2 rational
   .finite().positive('must be more than 0 s').max(MAX_TIME_TO_RESPOND_S, `must be at most ${MAX_TIME_TO_RESPOND_S} s (a week)`)
 
 const ruleFields = {
-  name: z.string({ required_error: 'is required' }).trim().min(2, 'must have at least 2 characters').max(120, 'must have at most 120 characters'),
+  name: textField().trim().min(2, 'must have at least 2 characters').max(120, 'must have at most 120 characters'),
   measure: z.enum(TAG_MEASURES, { errorMap: () => ({ message: `must be one of ${TAG_MEASURES.join(', ')}` }) }),
   comparison: z.enum(COMPARISONS, { errorMap: () => ({ message: 'must be above or below' }) }),
   threshold: z.number({ required_error: 'is required', invalid_type_error: 'must be a number' }).finite('must be finite'),

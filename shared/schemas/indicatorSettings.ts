@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { textField } from './fields'
 import type { SeriesRange } from './series'
 
 // The per-tag settings of the live indicator pipeline (shared/pipeline/indicatorDefaults.ts
@@ -38,7 +39,7 @@ export type IndicatorSettingsInput = z.infer<typeof indicatorSettingsSchema>
 
 export const indicatorSettingsSaveSchema = z.object({
   settings: indicatorSettingsSchema,
-  reason: z.string({ invalid_type_error: 'must be text' }).trim().max(500, 'must have at most 500 characters').default(''),
+  reason: textField().trim().max(500, 'must have at most 500 characters').default(''),
 }).strict()
 
 /** A preview runs the engine twice over every raw sample in its range: a week is too long to wait for. */

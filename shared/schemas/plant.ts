@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { dbId as id, textField } from './fields'
 import { LOOP_ROLES } from '../plant/vocabulary'
 import { isTimeZone } from '../utils/zonedTime'
 
@@ -14,18 +15,17 @@ export const MAX_SAMPLE_PERIOD_S = 86_400
 export const TAG_CODE_PATTERN = /^(?:\d{1,4}-)?[A-Z]{1,5}-?\d{1,6}[A-Z]?$/
 const PLANT_CODE_PATTERN = /^[A-Z0-9][A-Z0-9_-]{0,19}$/
 
-const text = (min: number, max: number) => z.string({ required_error: 'is required', invalid_type_error: 'must be text' }).trim()
+const text = (min: number, max: number) => textField().trim()
   .min(min, min === 1 ? 'must not be empty' : `must have at least ${min} characters`).max(max, `must have at most ${max} characters`)
-const plantCode = z.string({ required_error: 'is required', invalid_type_error: 'must be text' }).trim().toUpperCase()
+const plantCode = textField().trim().toUpperCase()
   .regex(PLANT_CODE_PATTERN, 'must be 1–20 capital letters, digits, - or _ (e.g. R-100)')
-const id = (what: string) => z.coerce.number({ invalid_type_error: `must be a ${what} id` }).int().positive(`must be a ${what} id`)
 const number = (message = 'must be a number') => z.number({ required_error: 'is required', invalid_type_error: message }).finite('must be finite')
 
 export const siteFields = {
   code: plantCode,
   name: text(2, 120),
   company: text(2, 120),
-  timeZone: z.string({ required_error: 'is required' }).trim()
+  timeZone: textField().trim()
     .refine(isTimeZone, 'must be an IANA time-zone name such as Europe/London'),
 }
 export const siteCreateSchema = z.object(siteFields)
@@ -48,7 +48,7 @@ export type UnitPatch = z.infer<typeof unitPatchSchema>
 
 const tagFields = {
   unitId: id('unit'),
-  code: z.string({ required_error: 'is required', invalid_type_error: 'must be text' }).trim().toUpperCase()
+  code: textField().trim().toUpperCase()
     .regex(TAG_CODE_PATTERN, 'must be an ISA-5.1 style code: letters, then the loop number (e.g. TI-101, FIC-2301)'),
   description: text(2, 200),
   engineeringUnit: text(1, 20),

@@ -1,6 +1,7 @@
 import { z } from 'zod'
+import { dbId, textField, timeField } from './fields'
 
-const optionalId = z.coerce.number({ invalid_type_error: 'must be a number' }).int().positive('must be a positive id').optional()
+const optionalId = dbId().optional()
 
 /** Length of a shift, and so of the handover view (12-hour shifts [common practice]). */
 export const SHIFT_HOURS = 12
@@ -10,10 +11,9 @@ const MAX_BACKDATE_MS = SHIFT_HOURS * 3_600_000
 const MAX_AHEAD_MS = 5 * 60_000
 
 export const shiftLogCreateSchema = z.object({
-  body: z.string({ required_error: 'is required', invalid_type_error: 'must be text' }).trim()
+  body: textField().trim()
     .min(1, 'must not be empty').max(4000, 'must have at most 4000 characters'),
-  at: z.coerce.date({ invalid_type_error: 'must be an ISO 8601 time' })
-    .refine(d => !Number.isNaN(d.getTime()), 'must be an ISO 8601 time')
+  at: timeField()
     .refine(d => d.getTime() <= Date.now() + MAX_AHEAD_MS, 'must not be in the future')
     .refine(d => d.getTime() >= Date.now() - MAX_BACKDATE_MS, `must be within the last ${SHIFT_HOURS} hours`)
     .optional(),

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { dbId, textField } from './fields'
 import { CSV_DELIMITERS } from '../utils/csvLayout'
 import { isTimeZone } from '../utils/zonedTime'
 
@@ -12,9 +13,9 @@ export const MAX_LISTED_REJECTIONS = 1_000
 /** Longest accepted CSV record (characters): one runaway quoted field can't fill the memory. */
 export const MAX_RECORD_CHARS = 64 * 1024
 
-const siteId = z.coerce.number({ invalid_type_error: 'must be a site id' }).int().positive('must be a site id')
+const siteId = dbId('site')
 const delimiter = z.enum(CSV_DELIMITERS, { errorMap: () => ({ message: 'must be one of , ; | or a tab' }) }).optional()
-const column = z.string().trim().min(1, 'must name a column of the header').max(200)
+const column = textField().trim().min(1, 'must name a column of the header').max(200)
 
 const flag = z.enum(['0', '1', 'true', 'false'], { errorMap: () => ({ message: 'must be 1 or 0' }) }).optional()
   .transform(v => v === '1' || v === 'true')
@@ -35,9 +36,9 @@ export const uploadImportQuerySchema = z.object({
   valueColumn: column.optional(),
   qualityColumn: column.optional(),
   // Wide format: comma-separated tag columns; all but the time column when left out.
-  tagColumns: z.string().trim().optional()
+  tagColumns: textField().trim().optional()
     .transform(s => (s ? s.split(',').map(c => c.trim()).filter(Boolean) : undefined)),
-  timeZone: z.string().trim().refine(isTimeZone, 'must be an IANA time-zone name such as Europe/London').optional(),
+  timeZone: textField().trim().refine(isTimeZone, 'must be an IANA time-zone name such as Europe/London').optional(),
   dryRun: flag,
 }).superRefine((q, ctx) => {
   if (q.format !== 'long') return

@@ -52,3 +52,17 @@ export function guessColumns(header: readonly string[], rows: readonly string[][
     return { format: 'long', timeColumn, tagColumn, valueColumn, qualityColumn: find(NAMES.quality), tagColumns: [] }
   return { format: 'wide', timeColumn, tagColumns: header.filter(h => h !== timeColumn) }
 }
+
+/**
+ * Why a CSV's decoded text cannot be trusted, or null. Files are read as UTF-8, or as UTF-16 LE
+ * when they start with its byte-order mark (what csv-parse's `bom` option recognises, and what
+ * spreadsheet programs write as "Unicode text"). Other UTF-16 files — big-endian, or without the
+ * mark — read as UTF-8 hold a NUL beside every ASCII character, or start with two replacement
+ * characters (FE FF). Guessing the encoding could store wrong tag codes silently, so such a file
+ * is refused with what to do instead.
+ */
+export function csvEncodingProblem(text: string): string | null {
+  if (text.startsWith('\uFFFD\uFFFD') || text.includes('\u0000'))
+    return 'the file is not UTF-8 text (it looks UTF-16 big-endian or without a byte-order mark): save it as CSV UTF-8 and send it again'
+  return null
+}

@@ -1,5 +1,6 @@
 import { QUALITY_CODES, type QualityName } from './sampleQuality'
 import { parseWallClock } from './zonedTime'
+import { NO_NUL, NUL_MESSAGE } from '../schemas/fields'
 
 /** One sample that passed validation: tag still by code, time as epoch milliseconds. */
 export interface ValidSample { index: number, tag: string, timeMs: number, value: number, quality: number }
@@ -111,6 +112,7 @@ export function validateSamples(items: readonly unknown[], tagOf: (code: string)
     if (typeof item !== 'object' || item === null || Array.isArray(item)) return reject('sample', 'must be an object {tag, time, value, quality?}')
     const { tag, time, value, quality } = item as Record<string, unknown>
     if (typeof tag !== 'string' || !tag.trim()) return reject('tag', 'is required (the tag code, e.g. TI-101)')
+    if (!NO_NUL.test(tag)) return reject('tag', NUL_MESSAGE)
     const bounds = tagOf(tag.trim())
     if (!bounds) return reject('tag', `unknown tag code ${JSON.stringify(tag.trim())} for this gateway's site`)
     const timeMs = parseSampleTime(time, clock)

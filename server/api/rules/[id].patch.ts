@@ -1,9 +1,9 @@
-import { alarmIdParamsSchema } from '#shared/schemas/alarm'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { alarmRulePatchSchema } from '#shared/schemas/alarmRule'
 
 export default defineEventHandler(async (event) => {
   const user = await requireCapability(event, 'configure')
-  const { id } = await validParams(event, alarmIdParamsSchema)
+  const { id } = await validParams(event, idParamsSchema)
   const patch = await validBody(event, alarmRulePatchSchema)
   return useDb().transaction(async (tx) => {
     const result = await updateRule(tx, id, patch, changeContext(user.id)).catch((err) => {

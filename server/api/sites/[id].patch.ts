@@ -1,4 +1,4 @@
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { sitePatchSchema } from '#shared/schemas/plant'
 import { plantHttpError } from '../../services/plantModel/errors'
 import { updateSite } from '../../services/plantModel/sites'

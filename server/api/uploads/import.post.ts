@@ -1,5 +1,6 @@
 import { Readable } from 'node:stream'
 import { uploadImportQuerySchema } from '#shared/schemas/upload'
+import { csvEncodingProblem } from '#shared/utils/csvLayout'
 import { planColumns } from '#shared/utils/csvSamples'
 
 // Body: the CSV file itself, streamed (never buffered). Answer: NDJSON lines, progress then a
@@ -11,12 +12,14 @@ export default defineEventHandler(async (event) => {
   const site = await findSite(db, query.siteId)
   if (!site) throw createError({ statusCode: 400, message: `siteId: no site with id ${query.siteId}` })
   const source = openCsvSource(event.node.req, query.delimiter)
-  const refuse = (message: string): never => {
+  const refuse = (message: string, statusCode = 400): never => {
     source.discard()
-    throw createError({ statusCode: 400, message })
+    throw createError({ statusCode, message })
   }
   const first = await source.next().catch((err: Error) => refuse(`body: the header line can't be read: ${err.message}`))
   const header = first?.record.map(h => h.trim()) ?? refuse('body: the file is empty (no header line)')
+  const encoding = csvEncodingProblem(header.join(','))
+  if (encoding) refuse(`body: ${encoding}`, 415)
   const planned = planColumns(header, query)
   const plan = 'message' in planned ? refuse(`${planned.field}: ${planned.message}`) : planned
   const timeZone = query.timeZone ?? site.timeZone

@@ -1,6 +1,6 @@
 import { parse } from 'csv-parse/sync'
 import { PREVIEW_MAX_BYTES, PREVIEW_ROWS, uploadPreviewQuerySchema } from '#shared/schemas/upload'
-import { detectDelimiter, guessColumns } from '#shared/utils/csvLayout'
+import { csvEncodingProblem, detectDelimiter, guessColumns } from '#shared/utils/csvLayout'
 import type { UploadPreview } from '#shared/types/upload'
 
 // Body: the first bytes of the file as text (the browser cuts it with File.slice).
@@ -13,8 +13,11 @@ export default defineEventHandler(async (event) => {
   const tooLarge = () => createError({ statusCode: 413, message: `body: send at most the first ${PREVIEW_MAX_BYTES} bytes of the file for a preview` })
   // Refuse a whole file by its declared length before reading it into memory.
   if (Number(getRequestHeader(event, 'content-length') ?? 0) > PREVIEW_MAX_BYTES) throw tooLarge()
-  const text = (await readRawBody(event, 'utf8')) ?? ''
-  if (Buffer.byteLength(text) > PREVIEW_MAX_BYTES) throw tooLarge()
+  const bytes = (await readRawBody(event, false)) ?? Buffer.alloc(0)
+  if (bytes.length > PREVIEW_MAX_BYTES) throw tooLarge()
+  const text = csvTextOf(bytes)
+  const encoding = csvEncodingProblem(text)
+  if (encoding) throw createError({ statusCode: 415, message: `body: ${encoding}` })
   // A slice may end mid-line; drop its partial last line unless it is all there is.
   const cut = text.lastIndexOf('\n')
   const whole = query.complete || cut <= 0 ? text : text.slice(0, cut)

@@ -1,6 +1,7 @@
 import type { TransactionSql } from 'postgres'
 import type { RejectedSample, TagBounds, ValidSample } from '#shared/utils/sampleBatch'
 import type { Db } from '../../utils/db'
+import { NO_NUL } from '#shared/schemas/fields'
 
 // Arrays go over the wire as PostgreSQL array literals ('{1,2,3}') cast on the server side: one
 // text parameter per column, independent of the driver's array-type discovery. Every element is a
@@ -9,8 +10,14 @@ const arrayLiteral = (items: ArrayLike<number | string>) => `{${Array.prototype.
 
 export interface SiteTag extends TagBounds { id: number }
 
-/** Tag code → id and range for the codes a batch mentions, within one site. */
-export async function tagIdsByCode(db: Db, siteId: number, codes: string[]): Promise<Map<string, SiteTag>> {
+/**
+ * Tag code → id and range for the codes a batch mentions, within one site. A code holding a NUL
+ * (a UTF-16 file read as UTF-8, a corrupt frame) names no tag and would make PostgreSQL fail the
+ * query, so it is left out: it comes back unknown, and its sample is refused as such.
+ */
+export async function tagIdsByCode(db: Db, siteId: number, allCodes: string[]): Promise<Map<string, SiteTag>> {
+  const codes = allCodes.filter(c => NO_NUL.test(c))
+  if (codes.length === 0) return new Map()
   const rows = await db.$sql<{ id: number, code: string, range_low: number, range_high: number }[]>`
     select id, code, range_low, range_high from tags where site_id = ${siteId} and code = any(${db.$sql.array(codes)}::text[])`
   return new Map(rows.map(r => [r.code, { id: r.id, rangeLow: r.range_low, rangeHigh: r.range_high }]))

@@ -1,5 +1,5 @@
 import type { H3Event } from 'h3'
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { plantHttpError } from './errors'
 import { setSiteRetired } from './sites'
 import { setTagRetired } from './tags'

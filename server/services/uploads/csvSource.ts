@@ -3,6 +3,13 @@ import { parse } from 'csv-parse'
 import { MAX_RECORD_CHARS } from '#shared/schemas/upload'
 import type { LineRejection } from '#shared/utils/csvSamples'
 
+const UTF16LE_BOM = Buffer.from([0xFF, 0xFE])
+
+/** A CSV's bytes as text, decoded as the import's parser decodes them: UTF-16 LE after its byte-order mark, else UTF-8. */
+export function csvTextOf(bytes: Buffer): string {
+  return bytes.subarray(0, 2).equals(UTF16LE_BOM) ? bytes.subarray(2).toString('utf16le') : bytes.toString('utf8')
+}
+
 export interface CsvRecord { record: string[], info: { lines: number } }
 
 /**

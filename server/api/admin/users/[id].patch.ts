@@ -1,4 +1,4 @@
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { userUpdateSchema } from '#shared/schemas/account'
 import { forgetAccountState } from '../../../services/accounts/accountState'
 import { updateUser } from '../../../services/accounts/users'

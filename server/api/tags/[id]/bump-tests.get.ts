@@ -1,4 +1,4 @@
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { listBumpTests } from '../../../services/bumpTests/bumpTests'
 
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
 import { bumpTestCreateSchema } from '#shared/schemas/bumpTest'
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { BumpTestRefused, createBumpTest } from '../../../services/bumpTests/bumpTests'
 
 export default defineEventHandler(async (event) => {

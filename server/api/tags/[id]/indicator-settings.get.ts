@@ -1,4 +1,4 @@
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { readTagSettings } from '../../../services/indicatorSettings/settings'
 
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,4 @@
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { indicatorSettingsSaveSchema } from '#shared/schemas/indicatorSettings'
 import { saveTagSettings } from '../../../services/indicatorSettings/settings'
 

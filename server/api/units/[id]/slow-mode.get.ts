@@ -1,4 +1,4 @@
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { slowModeQuerySchema } from '#shared/schemas/series'
 
 export default defineEventHandler(async (event) => {

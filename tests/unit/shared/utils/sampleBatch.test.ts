@@ -62,3 +62,18 @@ describe('valueProblem: physical bound of a ranged tag', () => {
     expect(valueProblem(Number.POSITIVE_INFINITY, ranged)).toBe('must be a finite number')
   })
 })
+
+describe('validateSamples: a tag code holding NUL', () => {
+  // PostgreSQL text cannot hold U+0000 (manual, "Character Types" [from memory]): the sample is
+  // refused on its own, naming tag, before its code reaches a query.
+  it('refuses only that sample, without looking the code up', () => {
+    const looked: string[] = []
+    const { valid, rejected } = validateSamples([
+      { tag: 'TI-101\u0000', time: NOW, value: 1 },
+      { tag: 'TI-101', time: NOW, value: 2 },
+    ], (code) => { looked.push(code); return ranged }, clock)
+    expect(valid.map(v => v.value)).toEqual([2])
+    expect(rejected).toEqual([{ index: 0, field: 'tag', reason: expect.stringContaining('NUL') }])
+    expect(looked).toEqual(['TI-101'])
+  })
+})

@@ -1,4 +1,4 @@
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { keyFacts } from '../../../../services/gateways/keyRotation'
 
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,5 @@
-import { gatewayRotateSchema, idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
+import { gatewayRotateSchema } from '#shared/schemas/gateway'
 import { rotateGatewayKey } from '../../../../services/gateways/keyRotation'
 
 // A new key, shown once; the old one keeps working for the grace period, then stops.

@@ -1,4 +1,4 @@
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { endSessions, forgetAccountState } from '../../../../services/accounts/accountState'
 import { findUser } from '../../../../services/accounts/users'
 

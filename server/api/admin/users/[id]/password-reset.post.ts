@@ -1,4 +1,4 @@
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { sendPasswordLink } from '../../../../services/accounts/passwordLinks'
 import { findUser } from '../../../../services/accounts/users'
 

@@ -1,4 +1,4 @@
-import { idParamsSchema } from '#shared/schemas/gateway'
+import { idParamsSchema } from '#shared/schemas/fields'
 import { indicatorSettingsPreviewSchema } from '#shared/schemas/indicatorSettings'
 import { previewTagSettings } from '../../../../services/indicatorSettings/preview'
 

@@ -1,0 +1,39 @@
+import { z } from 'zod'
+
+// Field types every contract shares, so a bound that protects the database holds on every route.
+
+/**
+ * Largest id a row can have: ids are PostgreSQL `integer` (serial) columns, 2^31 − 1. A larger
+ * number (2^31, 2^63, 1e20) would make the database fail the query ("out of range for type
+ * integer") instead of answering, so it is refused here as a bad id.
+ */
+export const MAX_DB_ID = 2_147_483_647
+
+/** A row id from a path, query or body ("12" or 12); `what` names the row in the message. */
+export const dbId = (what?: string) => {
+  const message = what ? `must be a ${what} id` : 'must be a positive id'
+  return z.coerce.number({ invalid_type_error: what ? message : 'must be a number' })
+    .int(message).positive(message).max(MAX_DB_ID, `${message} (at most ${MAX_DB_ID})`)
+}
+
+/** The `:id` of a route's path. */
+export const idParamsSchema = z.object({ id: dbId() })
+
+/**
+ * Text of any field. PostgreSQL refuses U+0000 in text values, and no form or gateway has a reason
+ * to send it, so it is refused here with the field named instead of failing the write.
+ */
+// eslint-disable-next-line no-control-regex -- matching the NUL character is the point of this check
+export const NO_NUL = /^[^\u0000]*$/
+export const NUL_MESSAGE = 'must not contain a NUL character (U+0000)'
+export const textField = (messages: { required?: string, type?: string } = {}) =>
+  z.string({ required_error: messages.required ?? 'is required', invalid_type_error: messages.type ?? 'must be text' })
+    .regex(NO_NUL, NUL_MESSAGE)
+
+/**
+ * A time in a query or body (ISO 8601). JavaScript reads years past 9999 ("10000-01-01"), but
+ * their ISO text (+010000-…) is not one the database reads, so they are refused like any
+ * unreadable time.
+ */
+export const timeField = () => z.coerce.date({ errorMap: () => ({ message: 'must be an ISO 8601 time' }) })
+  .refine(d => d.getUTCFullYear() >= 1 && d.getUTCFullYear() <= 9999, 'must be a time in the years 1 to 9999')
