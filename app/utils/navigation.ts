@@ -13,5 +13,6 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/upload', label: 'Upload history', capability: 'configure' },
   { to: '/admin/users', label: 'Users', capability: 'administer' },
   { to: '/admin/gateways', label: 'Gateways', capability: 'administer' },
+  { to: '/admin/routes', label: 'Notification routes', capability: 'administer' },
   { to: '/admin/audit', label: 'Audit log', capability: 'administer' },
 ]

@@ -12,7 +12,7 @@ const EXPECTED_NAV: Record<Role, string[]> = {
   operator: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log'],
   engineer: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Workbench', 'Upload history'],
   supervisor: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log'],
-  admin: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Users', 'Gateways', 'Audit log'],
+  admin: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Users', 'Gateways', 'Notification routes', 'Audit log'],
 }
 
 let context: BrowserContext

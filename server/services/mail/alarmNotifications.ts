@@ -1,25 +1,16 @@
-import { and, eq, gt, inArray, isNull, or, sql } from 'drizzle-orm'
+import { and, eq, gt, isNull, or, sql } from 'drizzle-orm'
 import { DIGEST_COLLECT_SECONDS, FLOOD_WINDOW_MINUTES, inFlood } from '#shared/alarms/flood'
-import { PRIORITIES, priorityRank, type Priority } from '#shared/alarms/vocabulary'
 import { renderAlarmMail } from '#shared/notifications/alarmMail'
-import { alarmEvents, alarms, notificationOutbox, notificationRoutes, users } from '../../db/schema'
+import { alarmEvents, alarms, notificationOutbox } from '../../db/schema'
 import type { AlarmRow } from '../../db/schema'
 import type { DbExecutor, DbTransaction } from '../../utils/db'
+import { alarmRecipients, type Recipients } from '../notifications/alarmRecipients'
 import { loadAlarmMailFacts } from './alarmMailFacts'
 
-/** Addresses of the routes that want this alarm: matching site or unit, at or above their priority. */
-export async function recipientsFor(db: DbExecutor, alarm: Pick<AlarmRow, 'siteId' | 'unitId' | 'priority'>): Promise<string[]> {
-  const wanted = PRIORITIES.filter(p => priorityRank(p) >= priorityRank(alarm.priority as Priority))
-  const routes = await db.select().from(notificationRoutes).where(and(
-    eq(notificationRoutes.siteId, alarm.siteId),
-    eq(notificationRoutes.enabled, true),
-    or(isNull(notificationRoutes.unitId), eq(notificationRoutes.unitId, alarm.unitId)),
-    inArray(notificationRoutes.minPriority, wanted),
-  ))
-  const roles = routes.flatMap(r => (r.role ? [r.role] : []))
-  const byRole = roles.length === 0 ? [] : await db.select({ email: users.email }).from(users)
-    .where(and(inArray(users.role, roles), eq(users.active, true)))
-  return [...new Set([...routes.flatMap(r => (r.email ? [r.email] : [])), ...byRole.map(u => u.email)])].sort()
+/** Every address routed to this alarm now, whatever the delivery preference (history summaries). */
+export async function recipientsFor(db: DbExecutor, alarm: AlarmRow): Promise<string[]> {
+  const { immediate, digest } = await alarmRecipients(db, alarm)
+  return [...new Set([...immediate.emails, ...digest.emails])].sort()
 }
 
 /**
@@ -37,29 +28,38 @@ async function recentAnnunciations(db: DbExecutor, siteId: number, maxAgeMinutes
 
 /**
  * Writes the mail for an annunciated alarm into the outbox, in the caller's transaction, so the
- * mail exists exactly when the state change does. During a flood the alarm joins the site's open
- * digest instead (created on first need, sent after a short collection time).
+ * mail exists exactly when the state change does. Routes that prefer a digest, and during a flood
+ * every route, get the alarm in the site's open digest instead (created on first need, sent after
+ * a short collection time). Each outbox row lists the routes behind it for their delivery logs.
  */
 export async function enqueueAlarmMail(tx: DbTransaction, alarm: AlarmRow, publicUrl: string, maxAgeMinutes: number): Promise<void> {
-  const recipients = await recipientsFor(tx, alarm)
-  if (recipients.length === 0) return
-  if (inFlood(await recentAnnunciations(tx, alarm.siteId, maxAgeMinutes))) {
-    await tx.insert(notificationOutbox).values({
-      kind: 'digest', siteId: alarm.siteId, alarmIds: [alarm.id], recipients,
-      nextAttemptAt: sql`now() + make_interval(secs => ${DIGEST_COLLECT_SECONDS})`,
-    }).onConflictDoUpdate({
-      target: notificationOutbox.siteId,
-      targetWhere: sql`${notificationOutbox.kind} = 'digest' and ${notificationOutbox.status} = 'pending'`,
-      set: {
-        alarmIds: sql`array_append(${notificationOutbox.alarmIds}, ${alarm.id}::bigint)`,
-        recipients: sql`array(select distinct unnest(${notificationOutbox.recipients} || excluded.recipients) order by 1)`,
-      },
-    })
-    return
-  }
+  const { immediate, digest } = await alarmRecipients(tx, alarm)
+  if (immediate.emails.length === 0 && digest.emails.length === 0) return
+  const flood = immediate.emails.length > 0 && inFlood(await recentAnnunciations(tx, alarm.siteId, maxAgeMinutes))
+  const toDigest: Recipients = flood
+    ? { emails: [...new Set([...immediate.emails, ...digest.emails])].sort(), routeIds: [...immediate.routeIds, ...digest.routeIds] }
+    : digest
+  if (toDigest.emails.length > 0) await addToDigest(tx, alarm, toDigest)
+  if (flood || immediate.emails.length === 0) return
   const [facts] = await loadAlarmMailFacts(tx, [alarm.id], publicUrl)
   const mail = renderAlarmMail(facts!)
   await tx.insert(notificationOutbox).values({
-    kind: 'alarm', siteId: alarm.siteId, alarmId: alarm.id, recipients, subject: mail.subject, body: mail.text,
+    kind: 'alarm', siteId: alarm.siteId, alarmId: alarm.id, recipients: immediate.emails, routeIds: immediate.routeIds,
+    subject: mail.subject, body: mail.text,
+  })
+}
+
+async function addToDigest(tx: DbTransaction, alarm: AlarmRow, to: Recipients): Promise<void> {
+  await tx.insert(notificationOutbox).values({
+    kind: 'digest', siteId: alarm.siteId, alarmIds: [alarm.id], recipients: to.emails, routeIds: to.routeIds,
+    nextAttemptAt: sql`now() + make_interval(secs => ${DIGEST_COLLECT_SECONDS})`,
+  }).onConflictDoUpdate({
+    target: notificationOutbox.siteId,
+    targetWhere: sql`${notificationOutbox.kind} = 'digest' and ${notificationOutbox.status} = 'pending'`,
+    set: {
+      alarmIds: sql`array_append(${notificationOutbox.alarmIds}, ${alarm.id}::bigint)`,
+      recipients: sql`array(select distinct unnest(${notificationOutbox.recipients} || excluded.recipients) order by 1)`,
+      routeIds: sql`array(select distinct unnest(${notificationOutbox.routeIds} || excluded.route_ids) order by 1)`,
+    },
   })
 }

@@ -1,0 +1,6 @@
+import { listRoutes } from '../../../services/notifications/routes'
+
+export default defineEventHandler(async (event) => {
+  await requireRole(event, 'admin')
+  return listRoutes(useDb())
+})
