@@ -37,3 +37,17 @@ export const textField = (messages: { required?: string, type?: string } = {}) =
  */
 export const timeField = () => z.coerce.date({ errorMap: () => ({ message: 'must be an ISO 8601 time' }) })
   .refine(d => d.getUTCFullYear() >= 1 && d.getUTCFullYear() <= 9999, 'must be a time in the years 1 to 9999')
+
+/**
+ * An instant that names its zone: ISO 8601 ending in Z or an offset. A time without one would be
+ * read in the server's zone, which is not the plant's and shifts twice a year; ingest refuses
+ * zone-less times for the same reason.
+ */
+const WITH_OFFSET = /(?:Z|[+-]\d{2}:?\d{2})$/i
+export const zonedTimeField = () => textField().trim()
+  // Fatal: a failed check must stop here, or the refinements after the pipe would see the string.
+  .superRefine((s, ctx) => {
+    if (!WITH_OFFSET.test(s))
+      ctx.addIssue({ code: 'custom', fatal: true, message: 'must name its time-zone offset, e.g. 2026-05-01T12:00:00Z or 2026-05-01T14:00:00+02:00' })
+  })
+  .pipe(timeField())

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { dbId, textField, timeField } from './fields'
+import { dbId, textField, zonedTimeField } from './fields'
 
 const optionalId = dbId().optional()
 
@@ -13,7 +13,7 @@ const MAX_AHEAD_MS = 5 * 60_000
 export const shiftLogCreateSchema = z.object({
   body: textField().trim()
     .min(1, 'must not be empty').max(4000, 'must have at most 4000 characters'),
-  at: timeField()
+  at: zonedTimeField()
     .refine(d => d.getTime() <= Date.now() + MAX_AHEAD_MS, 'must not be in the future')
     .refine(d => d.getTime() >= Date.now() - MAX_BACKDATE_MS, `must be within the last ${SHIFT_HOURS} hours`)
     .optional(),

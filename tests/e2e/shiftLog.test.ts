@@ -28,6 +28,8 @@ describe('POST /api/shift-log', () => {
     [{ body: '' }, /body: must not be empty/],
     [{ body: 'x', at: new Date(Date.now() + 3_600_000).toISOString() }, /at: must not be in the future/],
     [{ body: 'x', at: new Date(Date.now() - 13 * 3_600_000).toISOString() }, /at: must be within the last 12 hours/],
+    // Zone-less: read as server-local it would shift by the server's offset; ingest refuses it too.
+    [{ body: 'x', at: new Date(Date.now() - 60_000).toISOString().slice(0, 19) }, /at: must name its time-zone offset/],
     [{ body: 'x', tagId: 'TI-101' }, /tagId: must be a number/],
     [{ body: 'x', alarmId: 987654 }, /alarmId: alarm 987654 does not exist/],
   ])('refuses %j naming the field', async (json, message) => {

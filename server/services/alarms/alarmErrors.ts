@@ -14,10 +14,21 @@ export class AlarmsNotFound extends Error {
   }
 }
 
-/** 409 for refused transitions, 404 for unknown alarms; anything else is left alone. */
+/**
+ * A requestId that an earlier acknowledgement by another user, or of other alarms, already
+ * carries: not a retry of this request, so answering "replayed" would silently apply nothing.
+ */
+export class RequestIdReused extends Error {
+  constructor() {
+    super('requestId: already used by another acknowledgement (another user or other alarms); send a new requestId with a new request')
+  }
+}
+
+/** 409 for refused transitions and reused request ids, 404 for unknown alarms; anything else is left alone. */
 export function alarmHttpError(err: unknown): unknown {
   if (err instanceof AlarmTransitionRefused)
     return createError({ statusCode: 409, message: err.message, data: { refusals: err.refusals } })
   if (err instanceof AlarmsNotFound) return createError({ statusCode: 404, message: err.message })
+  if (err instanceof RequestIdReused) return createError({ statusCode: 409, message: err.message })
   return err
 }

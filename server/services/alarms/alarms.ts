@@ -5,7 +5,7 @@ import type { AlarmListQuery } from '#shared/schemas/alarm'
 import { alarmEvents, alarmRules, alarms, tags, units, users } from '../../db/schema'
 import type { AlarmRow } from '../../db/schema'
 import type { Db, DbExecutor, DbTransaction } from '../../utils/db'
-import { AlarmsNotFound, AlarmTransitionRefused } from './alarmErrors'
+import { AlarmsNotFound, AlarmTransitionRefused, RequestIdReused } from './alarmErrors'
 import type { ChangeContext } from '../../utils/changeContext'
 import { alarmLabel, transitionAlarm } from './alarmTransitions'
 
@@ -101,14 +101,19 @@ async function lockAlarms(tx: DbTransaction, ids: number[]): Promise<AlarmRow[]>
 /**
  * Acknowledges one or many alarms in one transaction: all or none. A repeated request with the
  * same requestId (a client retrying after a lost answer) is answered from what the first stored,
- * so an acknowledgement is never lost and never applied twice.
+ * so an acknowledgement is never lost and never applied twice; the same requestId from another
+ * user or for other alarms is not a retry and is refused (409).
  */
 export async function acknowledgeAlarms(db: Db, input: { ids: number[], comment?: string, requestId?: string }, ctx: ChangeContext) {
   return db.transaction(async (tx) => {
     if (input.requestId) {
-      const done = await tx.select({ alarmId: alarmEvents.alarmId }).from(alarmEvents)
+      const done = await tx.select({ alarmId: alarmEvents.alarmId, userId: alarmEvents.userId }).from(alarmEvents)
         .where(and(eq(alarmEvents.requestId, input.requestId), eq(alarmEvents.event, 'acknowledge')))
-      if (done.length > 0) return { replayed: true, alarms: await tx.select().from(alarms).where(inArray(alarms.id, done.map(d => d.alarmId))) }
+      if (done.length > 0) {
+        const sameAlarms = done.length === input.ids.length && done.every(d => input.ids.includes(d.alarmId))
+        if (!sameAlarms || done.some(d => d.userId !== ctx.userId)) throw new RequestIdReused()
+        return { replayed: true, alarms: await tx.select().from(alarms).where(inArray(alarms.id, done.map(d => d.alarmId))) }
+      }
     }
     const locked = await lockAlarms(tx, input.ids)
     // All or none: the lifecycle decides which may be acknowledged, and every refusal is named at once.

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { dbId, MAX_DB_ID, textField, timeField } from '../../../../shared/schemas/fields'
+import { dbId, MAX_DB_ID, textField, timeField, zonedTimeField } from '../../../../shared/schemas/fields'
 import { csvEncodingProblem } from '../../../../shared/utils/csvLayout'
 
 describe('row ids stay inside PostgreSQL integer', () => {
@@ -33,6 +33,18 @@ describe('times stay within four-digit years', () => {
   it('accepts 9999-12-31 and a normal offset time', () => {
     expect(timeField().parse('9999-12-31T23:59:59Z').getUTCFullYear()).toBe(9999)
     expect(timeField().parse('2026-05-01T12:00:00+02:00').toISOString()).toBe('2026-05-01T10:00:00.000Z')
+  })
+})
+
+describe('zoned times name their offset', () => {
+  // ISO 8601-1:2019 §5.3.4: a local time with no UTC offset does not name an instant [from memory].
+  it.each(['2026-05-01T12:00:00', '2026-05-01 12:00', '2026-05-01'])('refuses %s', (raw) => {
+    expect(zonedTimeField().safeParse(raw).error?.issues[0]?.message).toMatch(/time-zone offset/)
+    // Refinements chained after it (the shift log's window) never see the unparsed string.
+    expect(zonedTimeField().refine(d => d.getTime() > 0).safeParse(raw).error?.issues.map(i => i.message)).toEqual([expect.stringMatching(/time-zone offset/)])
+  })
+  it.each([['2026-05-01T12:00:00Z', '2026-05-01T12:00:00.000Z'], ['2026-05-01T14:00:00+02:00', '2026-05-01T12:00:00.000Z'], ['2026-05-01T07:00-0500', '2026-05-01T12:00:00.000Z']])('reads %s', (raw, iso) => {
+    expect(zonedTimeField().parse(raw).toISOString()).toBe(iso)
   })
 })
 
