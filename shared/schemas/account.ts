@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { textField } from './fields'
+import { displayNameField, textField } from './fields'
 import { ROLES } from '../utils/roles'
 
 /**
@@ -21,10 +21,7 @@ export const newPasswordField = textField()
 
 const roleField = z.enum(ROLES, { errorMap: () => ({ message: `must be one of ${ROLES.join(', ')}` }) })
 
-const nameField = textField().trim()
-  .min(2, 'must have at least 2 characters').max(80, 'must have at most 80 characters')
-  // eslint-disable-next-line no-control-regex -- matching control characters is the point of this check
-  .refine(s => !/[\u0000-\u001f]/.test(s), 'must not contain control characters')
+const nameField = displayNameField()
 
 export const userCreateSchema = z.object({
   email: textField().trim().toLowerCase().email('must be an e-mail address').max(254, 'is too long'),

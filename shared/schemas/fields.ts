@@ -31,6 +31,16 @@ export const textField = (messages: { required?: string, type?: string } = {}) =
     .regex(NO_NUL, NUL_MESSAGE)
 
 /**
+ * A person's or a route's name as lists show it: one line, 2–80 characters. A control character
+ * (tab, line feed, escape) would break the one-line tables and mail headers it appears in.
+ */
+// eslint-disable-next-line no-control-regex -- matching control characters is the point of this check
+const CONTROL_CHARACTER = /[\u0000-\u001f]/
+export const displayNameField = () => textField().trim()
+  .min(2, 'must have at least 2 characters').max(80, 'must have at most 80 characters')
+  .refine(s => !CONTROL_CHARACTER.test(s), 'must not contain control characters')
+
+/**
  * A time in a query or body (ISO 8601). JavaScript reads years past 9999 ("10000-01-01"), but
  * their ISO text (+010000-…) is not one the database reads, so they are refused like any
  * unreadable time.

@@ -2,15 +2,14 @@ import { z } from 'zod'
 import { ALARM_CLASSES, PRIORITIES } from '../alarms/vocabulary'
 import { ROUTE_DELIVERIES, ROUTE_HOURS } from '../notifications/routeMatch'
 import { ROLES } from '../utils/roles'
-import { dbId } from './fields'
+import { dbId, displayNameField } from './fields'
 
 const minute = z.number({ invalid_type_error: 'must be minutes after midnight' }).int('must be whole minutes').min(0, 'must be 0 or more').max(1439, 'must be at most 1439 (23:59)')
 const oneOf = <T extends readonly [string, ...string[]]>(values: T) => z.enum(values, { errorMap: () => ({ message: `must be one of ${values.join(', ')}` }) })
 
 /** A route sends to one address or to every active user of one role, never both. */
 const routeFields = z.object({
-  name: z.string({ required_error: 'is required' }).trim().min(2, 'must have at least 2 characters').max(80, 'must have at most 80 characters')
-    .refine(s => !/[\u0000-\u001f]/.test(s), 'must not contain control characters'),
+  name: displayNameField(),
   siteId: dbId('site'),
   unitId: dbId('unit').nullable().default(null),
   email: z.string().trim().toLowerCase().email('must be an e-mail address').max(254, 'is too long').nullable().default(null),
