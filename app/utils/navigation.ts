@@ -9,6 +9,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/units', label: 'Units', capability: 'view' },
   { to: '/tags', label: 'Tags', capability: 'view' },
   { to: '/shift-log', label: 'Shift log', capability: 'view' },
+  { to: '/review/incidents', label: 'Incidents', capability: 'view' },
   { to: '/review/health', label: 'Alarm health', capability: 'view' },
   { to: '/workbench', label: 'Workbench', capability: 'configure' },
   { to: '/upload', label: 'Upload history', capability: 'configure' },

@@ -4,10 +4,11 @@ import { url } from '@nuxt/test-utils/e2e'
 import { setupBuiltServer } from '../support/server'
 import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
 import { testSql } from '../support/db'
-import { waitForDemoSite } from '../support/pipeline'
+import { tick, waitForDemoSite } from '../support/pipeline'
+import { MANUAL_TICKS_ENV } from '../support/mailbox'
 import { activation, insertOccurrence, insertRule, oneShot } from '../support/reviewFixtures'
 
-await setupBuiltServer()
+await setupBuiltServer(MANUAL_TICKS_ENV)
 const sql = testSql()
 let context: BrowserContext
 const MIN = 60_000
@@ -24,6 +25,10 @@ beforeAll(async () => {
       { at: BASE + 3 * 3_600_000 + k * 15_000, event: 'activate', from: 'rtn_unacknowledged', to: 'unacknowledged' }])], BASE + 3 * 3_600_000 + MIN)
   await oneShot(sql, await insertRule(sql, { unitCode: 'T-400', alarmClass: 'alert', measure: 'early_warning' }), BASE + 5 * 3_600_000)
   await insertOccurrence(sql, await insertRule(sql, { unitCode: 'T-400', priority: 'high' }), [activation(BASE - 30 * 3_600_000)], null)
+  // An approach on R-100: the slowing-down alert 20 min before the limit alarm, grouped by a tick.
+  await oneShot(sql, await insertRule(sql, { unitCode: 'R-100', alarmClass: 'alert', measure: 'early_warning', name: 'R-100 slowing down' }), BASE + 6 * 3_600_000)
+  await oneShot(sql, await insertRule(sql, { unitCode: 'R-100', priority: 'high', name: 'R-100 high temperature' }), BASE + 6 * 3_600_000 + 20 * MIN)
+  await tick()
   context = await launchChromium()
 })
 afterAll(async () => { await context?.close(); await sql.end() })
@@ -44,6 +49,42 @@ describe('supervisor review pages', () => {
     expect(await page.getByTestId('chattering').textContent()).toContain('Review chatter fixture')
     expect(await page.getByTestId('stale').locator('li').count()).toBe(1)
     await screenshot(page, 'review-health')
+    await page.close()
+  })
+
+  it('a supervisor reviews an incident, writes the findings and closes it with a sign-off; an operator reads it', async () => {
+    await context.clearCookies()
+    const page = await context.newPage()
+    await signInThroughForm(page, 'supervisor')
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Incidents' }).click()
+    const row = page.getByTestId('incident-list').locator('tr', { hasText: 'R-100' })
+    await row.waitFor()
+    expect(await row.textContent()).toContain('20 min before')
+    await screenshot(page, 'review-incidents')
+    await row.getByRole('link').click()
+    const verdict = page.getByTestId('early-warning-verdict')
+    await verdict.waitFor()
+    expect(await verdict.textContent()).toContain('The early warning came before the limit alarm: 20 min before')
+    expect(await page.getByTestId('incident-members').locator('tbody tr').count()).toBe(2)
+    await page.getByRole('button', { name: 'Start review' }).click()
+    await expect.poll(() => page.getByTestId('incident-state').first().textContent()).toContain('under review')
+    await page.getByLabel('What happened').fill('Reactor temperature rose to its high limit.')
+    await page.getByLabel('Cause').fill('Cooling water flow fell (fouled exchanger).')
+    await page.getByLabel('Actions').fill('Exchanger cleaned; feed cut while it was.')
+    await page.getByLabel('Lessons').fill('The slowing-down alert gave 20 minutes: act on it.')
+    await page.getByRole('button', { name: 'Save findings' }).click()
+    await page.getByRole('button', { name: 'Close and sign off' }).click()
+    const signOff = page.getByTestId('sign-off')
+    await expect.poll(() => signOff.textContent()).toContain('Signed off by Sam Okafor')
+    expect(await page.getByTestId('findings').textContent()).toContain('Cooling water flow fell')
+    await screenshot(page, 'review-incident-closed')
+    const path = new URL(page.url()).pathname
+    await context.clearCookies()
+    await signInThroughForm(page, 'operator')
+    await page.goto(url(path))
+    await page.getByTestId('findings').waitFor()
+    expect(await page.getByRole('button', { name: 'Save findings' }).count()).toBe(0)
+    expect(await page.getByTestId('sign-off').textContent()).toContain('Sam Okafor')
     await page.close()
   })
 })

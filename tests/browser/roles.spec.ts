@@ -9,10 +9,10 @@ await setupBuiltServer()
 
 // docs/design.md §D2.1: each role sees its own work. Admin pages are only in the admin's navigation.
 const EXPECTED_NAV: Record<Role, string[]> = {
-  operator: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Alarm health'],
-  engineer: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Alarm health', 'Workbench', 'Upload history'],
-  supervisor: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Alarm health'],
-  admin: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Alarm health', 'Users', 'Gateways', 'Notification routes', 'Audit log'],
+  operator: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health'],
+  engineer: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health', 'Workbench', 'Upload history'],
+  supervisor: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health'],
+  admin: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health', 'Users', 'Gateways', 'Notification routes', 'Audit log'],
 }
 
 let context: BrowserContext

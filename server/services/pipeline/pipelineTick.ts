@@ -11,6 +11,7 @@ import { expireShelves } from '../alarms/alarms'
 import { refreshSlowModes } from './slowModeRefresh'
 import { isDatabaseUnavailable } from '../../utils/dbUnavailable'
 import { sampleClock } from '../ingest/sampleClock'
+import { groupNewAlarms } from '../review/incidentGrouping'
 
 /** Tags claimed and stored together in one transaction: round trips are per batch, not per tag. */
 const TAG_BATCH_SIZE = 50
@@ -23,6 +24,8 @@ export interface TickReport {
   samples: number
   evaluations: number
   shelvesExpired: number
+  /** Alarms placed into incidents this tick. */
+  incidentAlarms: number
   slowModes: number
   ms: number
   /** Worker threads evaluating tags; 0 when they are evaluated on the main thread. */
@@ -33,7 +36,7 @@ export interface TickReport {
 /**
  * One tick of the live pipeline (docs/design.md §D4 item 3): the watched tags with samples newer than their
  * claim are processed in batches, each batch in its own transaction; then expired shelves end,
- * silent tags turn to "no data", and the units' slow modes are refreshed. Safe to run on several
+ * new alarms join their incidents, silent tags turn to "no data", and the units' slow modes are refreshed. Safe to run on several
  * instances at once.
  */
 export async function runPipelineTick(db: Db, ctx: ChangeContext, clock = new StageClock()): Promise<TickReport> {
@@ -49,7 +52,7 @@ export async function runPipelineTick(db: Db, ctx: ChangeContext, clock = new St
       order by st.tag_id`)
     return rows.map(r => Number(r.tag_id))
   })
-  const report: TickReport = { tags: 0, skipped: 0, samples: 0, evaluations: 0, shelvesExpired: 0, slowModes: 0, ms: 0, evaluationThreads: serverEvaluationPool().threads, stages: {} }
+  const report: TickReport = { tags: 0, skipped: 0, samples: 0, evaluations: 0, shelvesExpired: 0, incidentAlarms: 0, slowModes: 0, ms: 0, evaluationThreads: serverEvaluationPool().threads, stages: {} }
   const batches = Array.from({ length: Math.ceil(candidates.length / TAG_BATCH_SIZE) },
     (_, i) => candidates.slice(i * TAG_BATCH_SIZE, (i + 1) * TAG_BATCH_SIZE))
   const count = (tagIds: number[], done: BatchOutcome) => {
@@ -67,6 +70,7 @@ export async function runPipelineTick(db: Db, ctx: ChangeContext, clock = new St
   }
   await Promise.all(Array.from({ length: BATCH_CONCURRENCY }, worker))
   report.shelvesExpired = await clock.run('shelve expiry', () => expireShelves(db, ctx))
+  report.incidentAlarms = await clock.run('incident grouping', () => groupNewAlarms(db))
   await clock.run('no-data sweep', () => markSilentTags(db))
   report.slowModes = await clock.run('unit slow mode', () => refreshSlowModes(db, ctx, clock))
   report.ms = Math.round(performance.now() - started)

@@ -1,0 +1,48 @@
+import { z } from 'zod'
+import { ALERT_OUTCOMES, INCIDENT_STATES, MAX_INCIDENT_WINDOW_S } from '../alarms/reviewVocabulary'
+import { dbId, textField } from './fields'
+
+const findingText = textField().trim().max(8000, 'must have at most 8000 characters')
+const title = textField().trim().min(3, 'must have at least 3 characters').max(200, 'must have at most 200 characters')
+const alarmIds = z.array(dbId('alarm'), { required_error: 'is required (a list of alarm ids)', invalid_type_error: 'must be a list of alarm ids' })
+  .min(1, 'must name at least one alarm').max(500, 'must name at most 500 alarms')
+  .refine(ids => new Set(ids).size === ids.length, 'must not repeat an alarm')
+
+export const incidentListQuerySchema = z.object({
+  state: z.enum(INCIDENT_STATES, { errorMap: () => ({ message: `must be one of ${INCIDENT_STATES.join(', ')}` }) }).optional(),
+  unitId: dbId('unit').optional(),
+  limit: z.coerce.number({ invalid_type_error: 'must be a number' }).int().min(1, 'must be at least 1').max(500, 'must be at most 500').default(200),
+})
+export type IncidentListQuery = z.infer<typeof incidentListQuerySchema>
+
+/** A supervisor opens an incident by hand over alarms of one unit (taken out of any incident they were in). */
+export const incidentCreateSchema = z.object({ unitId: dbId('unit'), alarmIds, title: title.optional() })
+export type IncidentCreate = z.infer<typeof incidentCreateSchema>
+
+/** Findings (what happened, cause, actions, lessons) and the title; any of them, at least one. */
+export const incidentFindingsSchema = z.object({
+  title: title.optional(),
+  whatHappened: findingText.optional(),
+  cause: findingText.optional(),
+  actions: findingText.optional(),
+  lessons: findingText.optional(),
+}).refine(b => Object.values(b).some(v => v !== undefined), { path: ['body'], message: 'must change at least one of title, whatHappened, cause, actions, lessons' })
+export type IncidentFindings = z.infer<typeof incidentFindingsSchema>
+
+export const incidentStateSchema = z.object({
+  state: z.enum(INCIDENT_STATES, { errorMap: () => ({ message: `must be one of ${INCIDENT_STATES.join(', ')}` }) }),
+})
+
+export const incidentMergeSchema = z.object({ incidentId: dbId('incident') })
+export const incidentSplitSchema = z.object({ alarmIds, title: title.optional() })
+
+export const alertOutcomeSchema = z.object({
+  outcome: z.enum(ALERT_OUTCOMES, { errorMap: () => ({ message: `must be one of ${ALERT_OUTCOMES.join(', ')}` }) }).nullable(),
+  note: textField().trim().max(2000, 'must have at most 2000 characters').default(''),
+})
+
+export const reviewSettingsSchema = z.object({
+  siteId: dbId('site'),
+  incidentWindowS: z.number({ required_error: 'is required', invalid_type_error: 'must be a number of seconds' })
+    .int('must be whole seconds').min(60, 'must be at least 60').max(MAX_INCIDENT_WINDOW_S, `must be at most ${MAX_INCIDENT_WINDOW_S}`),
+})

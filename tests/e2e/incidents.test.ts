@@ -1,0 +1,166 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { ADVISORY_CAUTION } from '../../shared/alarms/vocabulary'
+import { testSql } from '../support/db'
+import { MANUAL_TICKS_ENV } from '../support/mailbox'
+import { tick, waitForDemoSite } from '../support/pipeline'
+import { insertRule, oneShot } from '../support/reviewFixtures'
+import { setupBuiltServer } from '../support/server'
+import { call, signInAs } from '../support/session'
+
+await setupBuiltServer(MANUAL_TICKS_ENV)
+const sql = testSql()
+afterAll(async () => { await sql.end() })
+
+// Alarm histories stated here and grouped by the pipeline's tick; each expectation follows from
+// the grouping rule (shared/alarms/incidents.ts: a later alarm joins while the earlier stands or
+// within the site's window after it ended) and the lead-time definition (first slowing-down alert
+// to first limit alarm).
+const MIN = 60_000
+const T0 = Date.UTC(2026, 1, 10, 8, 0, 0)
+let supervisor = ''
+let operator = ''
+let engineer = ''
+let admin = ''
+const ids: Record<string, number> = {}
+const incidentOf = async (alarmId: number) => Number((await sql`select incident_id from incident_alarms where alarm_id = ${alarmId}`)[0]?.incident_id ?? 0)
+const membersOf = async (incidentId: number) => (await sql`select alarm_id from incident_alarms where incident_id = ${incidentId} order by alarm_id`).map(r => Number(r.alarm_id))
+
+beforeAll(async () => {
+  await waitForDemoSite(sql)
+  ;[supervisor, operator, engineer, admin] = await Promise.all(['supervisor', 'operator', 'engineer', 'admin'].map(r => signInAs(r as 'operator')))
+  const alert = () => insertRule(sql, { unitCode: 'T-400', alarmClass: 'alert', measure: 'early_warning' })
+  const limit = (unitCode = 'T-400') => insertRule(sql, { unitCode, priority: 'high' })
+  // Default window 30 min: the slowing-down alert at 0, its limit alarm 20 min later (joins), then
+  // an alarm 95 min in (65 min after the last one ended: apart), and one on another unit.
+  ids.warn = await oneShot(sql, await alert(), T0)
+  ids.limit = await oneShot(sql, await limit(), T0 + 20 * MIN)
+  ids.later = await oneShot(sql, await limit(), T0 + 95 * MIN)
+  ids.other = await oneShot(sql, await limit('D-200'), T0 + 21 * MIN)
+  await tick()
+})
+
+describe('incidents grouped per unit by the pipeline', () => {
+  it('joins alarms within the window, keeps later ones and other units apart, and records the lead time', async () => {
+    const first = await incidentOf(ids.warn!)
+    expect(first).toBeGreaterThan(0)
+    expect(await membersOf(first)).toEqual([ids.warn, ids.limit].sort((a, b) => a! - b!))
+    expect(await incidentOf(ids.later!)).not.toBe(first)
+    expect(await incidentOf(ids.other!)).not.toBe(first)
+    const detail = await call(`/api/incidents/${first}`, { cookie: operator })
+    expect(detail.status).toBe(200)
+    expect(detail.body.advisory).toBe(ADVISORY_CAUTION)
+    expect(detail.body).toMatchObject({ state: 'open', origin: 'automatic', unitCode: 'T-400', verdict: 'before', leadTimeS: 1200 })
+    const list = await call('/api/incidents', { cookie: operator })
+    expect(list.status).toBe(200)
+    expect(list.body.find((i: { id: number }) => i.id === first)).toMatchObject({ alarmCount: 2, leadTimeS: 1200 })
+  })
+
+  it('the window is the site\'s setting: at 10 min an alarm 15 min after the last one ended starts a new incident (audited)', async () => {
+    const siteId = Number((await sql`select id from sites limit 1`)[0]!.id)
+    expect((await call('/api/review/settings', { method: 'PUT', cookie: engineer, json: { siteId, incidentWindowS: 600 } })).status).toBe(403)
+    const bad = await call('/api/review/settings', { method: 'PUT', cookie: supervisor, json: { siteId, incidentWindowS: 10 } })
+    expect(bad.status).toBe(400)
+    expect(bad.body.message).toContain('incidentWindowS')
+    const saved = await call('/api/review/settings', { method: 'PUT', cookie: supervisor, json: { siteId, incidentWindowS: 600 } })
+    expect(saved.status).toBe(200)
+    expect((await call(`/api/review/settings?siteId=${siteId}`, { cookie: operator })).body.incidentWindowS).toBe(600)
+    const [audit] = await sql`select detail from audit_log where action = 'review.settings' order by id desc limit 1`
+    expect(audit!.detail).toMatchObject({ before: { incidentWindowS: 1800 }, after: { incidentWindowS: 600 } })
+    const a = await oneShot(sql, await insertRule(sql, { unitCode: 'T-400' }), T0 + 300 * MIN)
+    const b = await oneShot(sql, await insertRule(sql, { unitCode: 'T-400' }), T0 + 315 * MIN)
+    const c = await oneShot(sql, await insertRule(sql, { unitCode: 'T-400' }), T0 + 320 * MIN)
+    await tick()
+    expect(await incidentOf(b)).not.toBe(await incidentOf(a))
+    expect(await incidentOf(c)).toBe(await incidentOf(b))
+  })
+})
+
+describe('supervisors merge, split, open, review and close; everyone reads', () => {
+  it('refuses the other roles on every change (server-checked)', async () => {
+    const id = await incidentOf(ids.warn!)
+    for (const cookie of [operator, engineer, admin]) {
+      expect((await call(`/api/incidents/${id}`, { method: 'PATCH', cookie, json: { cause: 'x' } })).status).toBe(403)
+      expect((await call(`/api/incidents/${id}/state`, { method: 'POST', cookie, json: { state: 'under_review' } })).status).toBe(403)
+      expect((await call(`/api/incidents/${id}/merge`, { method: 'POST', cookie, json: { incidentId: 1 } })).status).toBe(403)
+      expect((await call(`/api/incidents/${id}/split`, { method: 'POST', cookie, json: { alarmIds: [ids.warn] } })).status).toBe(403)
+      expect((await call('/api/incidents', { method: 'POST', cookie, json: { unitId: 1, alarmIds: [ids.warn] } })).status).toBe(403)
+      expect((await call(`/api/incidents/${id}`, { cookie })).status).toBe(200)
+    }
+    expect((await call(`/api/incidents/${id}`)).status).toBe(401)
+  })
+
+  it('merges an incident of the same unit (the other goes, audited), refuses one of another unit; splits back', async () => {
+    const into = await incidentOf(ids.warn!)
+    const later = await incidentOf(ids.later!)
+    const otherUnit = await incidentOf(ids.other!)
+    const cross = await call(`/api/incidents/${into}/merge`, { method: 'POST', cookie: supervisor, json: { incidentId: otherUnit } })
+    expect(cross.status).toBe(400)
+    expect(cross.body.message).toContain('incidentId')
+    const merged = await call(`/api/incidents/${into}/merge`, { method: 'POST', cookie: supervisor, json: { incidentId: later } })
+    expect(merged.status).toBe(200)
+    expect(await membersOf(into)).toEqual([ids.warn, ids.limit, ids.later].sort((a, b) => a! - b!))
+    expect((await call(`/api/incidents/${later}`, { cookie: operator })).status).toBe(404)
+    expect((await sql`select 1 from audit_log where action = 'incident.merge' and detail->>'merged' = ${String(later)}`).length).toBe(1)
+    const everything = await call(`/api/incidents/${into}/split`, { method: 'POST', cookie: supervisor, json: { alarmIds: [ids.warn, ids.limit, ids.later] } })
+    expect(everything.status).toBe(400)
+    expect(everything.body.message).toContain('alarmIds')
+    const stranger = await call(`/api/incidents/${into}/split`, { method: 'POST', cookie: supervisor, json: { alarmIds: [ids.other] } })
+    expect(stranger.status).toBe(400)
+    const split = await call(`/api/incidents/${into}/split`, { method: 'POST', cookie: supervisor, json: { alarmIds: [ids.later] } })
+    expect(split.status).toBe(201)
+    expect(await membersOf(split.body.newId)).toEqual([ids.later])
+    expect(await membersOf(into)).toEqual([ids.warn, ids.limit].sort((a, b) => a! - b!))
+    // Splitting the limit alarm off leaves the alert with nothing after it: no lead any more.
+    const s2 = await call(`/api/incidents/${into}/split`, { method: 'POST', cookie: supervisor, json: { alarmIds: [ids.limit] } })
+    expect((await call(`/api/incidents/${into}`, { cookie: operator })).body).toMatchObject({ verdict: 'no_limit_alarm', leadTimeS: null })
+    await call(`/api/incidents/${into}/merge`, { method: 'POST', cookie: supervisor, json: { incidentId: s2.body.newId } })
+    expect((await call(`/api/incidents/${into}`, { cookie: operator })).body.leadTimeS).toBe(1200)
+  })
+
+  it('opens one by hand over alarms of one unit; the emptied automatic incident goes', async () => {
+    const d200 = Number((await sql`select id from units where code = 'D-200'`)[0]!.id)
+    const was = await incidentOf(ids.other!)
+    const wrongUnit = await call('/api/incidents', { method: 'POST', cookie: supervisor, json: { unitId: d200, alarmIds: [ids.later] } })
+    expect(wrongUnit.status).toBe(400)
+    expect(wrongUnit.body.message).toContain('alarmIds')
+    const opened = await call('/api/incidents', { method: 'POST', cookie: supervisor, json: { unitId: d200, alarmIds: [ids.other], title: 'Digester upset' } })
+    expect(opened.status).toBe(201)
+    expect(await membersOf(opened.body.id)).toEqual([ids.other])
+    expect((await call(`/api/incidents/${was}`, { cookie: operator })).status).toBe(404)
+    expect((await call(`/api/incidents/${opened.body.id}`, { cookie: operator })).body).toMatchObject({ origin: 'manual', title: 'Digester upset' })
+  })
+
+  it('open → under review → closed with findings and a sign-off by name and time; closed stays closed', async () => {
+    const id = await incidentOf(ids.warn!)
+    const early = await call(`/api/incidents/${id}/state`, { method: 'POST', cookie: supervisor, json: { state: 'closed' } })
+    expect(early.status).toBe(409)
+    expect(early.body.message).toContain('state')
+    expect((await call(`/api/incidents/${id}/state`, { method: 'POST', cookie: supervisor, json: { state: 'under_review' } })).status).toBe(200)
+    const blank = await call(`/api/incidents/${id}/state`, { method: 'POST', cookie: supervisor, json: { state: 'closed' } })
+    expect(blank.status).toBe(409)
+    expect(blank.body.message).toContain('whatHappened')
+    expect((await call(`/api/incidents/${id}`, { method: 'PATCH', cookie: supervisor, json: {} })).body.message).toContain('body')
+    const findings = { whatHappened: 'Test vessel approached its high limit.', cause: 'Cooling valve sticking.', actions: 'Valve serviced.', lessons: 'Watch the slowing-down alert.' }
+    expect((await call(`/api/incidents/${id}`, { method: 'PATCH', cookie: supervisor, json: findings })).status).toBe(200)
+    const closed = await call(`/api/incidents/${id}/state`, { method: 'POST', cookie: supervisor, json: { state: 'closed' } })
+    expect(closed.status).toBe(200)
+    expect(closed.body).toMatchObject({ state: 'closed', signedOffByName: 'Sam Okafor' })
+    expect(Date.parse(closed.body.signedOffAt)).toBeGreaterThan(Date.now() - 5 * MIN)
+    expect((await call(`/api/incidents/${id}`, { method: 'PATCH', cookie: supervisor, json: { cause: 'changed' } })).status).toBe(409)
+    expect((await call(`/api/incidents/${id}/state`, { method: 'POST', cookie: supervisor, json: { state: 'open' } })).status).toBe(409)
+    const audits = await sql`select action, detail from audit_log where target = ${`incident ${id}`} order by id`
+    expect(audits.map(a => a.action)).toEqual(expect.arrayContaining(['incident.findings', 'incident.state']))
+    expect(audits.find(a => a.action === 'incident.findings')!.detail.after.cause).toBe('Cooling valve sticking.')
+  })
+
+  it('marks a slowing-down alert averted (audited); other alarms take no mark; bad ids name the field', async () => {
+    const marked = await call(`/api/review/alert-outcomes/${ids.warn}`, { method: 'PUT', cookie: supervisor, json: { outcome: 'averted', note: 'operators cut feed' } })
+    expect(marked.status).toBe(200)
+    expect((await sql`select outcome from alert_outcomes where alarm_id = ${ids.warn!}`)[0]!.outcome).toBe('averted')
+    expect((await call(`/api/review/alert-outcomes/${ids.limit}`, { method: 'PUT', cookie: supervisor, json: { outcome: 'false' } })).status).toBe(400)
+    expect((await call(`/api/review/alert-outcomes/${ids.warn}`, { method: 'PUT', cookie: operator, json: { outcome: 'false' } })).status).toBe(403)
+    expect((await call(`/api/review/alert-outcomes/${ids.warn}`, { method: 'PUT', cookie: supervisor, json: { outcome: 'maybe' } })).body.message).toContain('outcome')
+    expect((await call('/api/incidents/abc', { cookie: operator })).body.message).toContain('id')
+    expect((await call('/api/incidents/987654', { cookie: operator })).status).toBe(404)
+  })
+})
