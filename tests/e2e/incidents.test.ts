@@ -3,7 +3,7 @@ import { ADVISORY_CAUTION } from '../../shared/alarms/vocabulary'
 import { testSql } from '../support/db'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
 import { tick, waitForDemoSite } from '../support/pipeline'
-import { insertRule, oneShot } from '../support/reviewFixtures'
+import { activation, insertOccurrence, insertRule, oneShot } from '../support/reviewFixtures'
 import { setupBuiltServer } from '../support/server'
 import { call, signInAs } from '../support/session'
 
@@ -162,5 +162,44 @@ describe('supervisors merge, split, open, review and close; everyone reads', () 
     expect((await call(`/api/review/alert-outcomes/${ids.warn}`, { method: 'PUT', cookie: supervisor, json: { outcome: 'maybe' } })).body.message).toContain('outcome')
     expect((await call('/api/incidents/abc', { cookie: operator })).body.message).toContain('id')
     expect((await call('/api/incidents/987654', { cookie: operator })).status).toBe(404)
+  })
+})
+
+describe('the incident on one time axis, and its events as CSV', () => {
+  it('lists every event in order with who and comment, numbers re-activations, takes in the shift-log notes, and exports them', async () => {
+    const operatorId = Number((await sql`select id from users where email = 'operator@harrowgate.example'`)[0]!.id)
+    const t = T0 + 2000 * MIN
+    const rule = await insertRule(sql, { unitCode: 'T-400', priority: 'medium', name: 'Timeline fixture level' })
+    const alarmId = await insertOccurrence(sql, rule, [
+      activation(t),
+      { at: t + 2 * MIN, event: 'return', from: 'unacknowledged', to: 'rtn_unacknowledged' },
+      { at: t + 4 * MIN, event: 'activate', from: 'rtn_unacknowledged', to: 'unacknowledged' },
+      { at: t + 5 * MIN, event: 'acknowledge', from: 'unacknowledged', to: 'acknowledged', userId: operatorId, comment: '=seen, level checked' },
+      { at: t + 9 * MIN, event: 'return', from: 'acknowledged', to: 'normal' },
+    ], t + 9 * MIN)
+    const unitId = Number((await sql`select id from units where code = 'T-400'`)[0]!.id)
+    await sql`insert into shift_log_notes (site_id, author_id, at, body, unit_id)
+      select site_id, ${operatorId}, ${new Date(t + 6 * MIN).toISOString()}::timestamptz, 'Drained the knock-out pot.', id from units where id = ${unitId}`
+    await tick()
+    const incidentId = await incidentOf(alarmId)
+    const res = await call(`/api/incidents/${incidentId}/timeline`, { cookie: operator })
+    expect(res.status).toBe(200)
+    expect(res.body.advisory).toBe(ADVISORY_CAUTION)
+    // Half an hour before the first alarm to a quarter hour after the last event.
+    expect(res.body.span).toEqual({ from: new Date(t - 30 * MIN).toISOString(), to: new Date(t + 24 * MIN).toISOString() })
+    const rows = res.body.entries.map((e: { event: string, who: string, text: string }) => [e.event, e.who, e.text])
+    expect(rows).toEqual([
+      ['activate', 'system', ''], ['return', 'system', ''], ['re-activate #2', 'system', ''],
+      ['acknowledge', 'Olu Mensah', '=seen, level checked'], ['note', 'Olu Mensah', 'Drained the knock-out pot.'], ['return', 'system', ''],
+    ])
+    const csv = await fetch(`${(await import('@nuxt/test-utils/e2e')).url(`/api/incidents/${incidentId}/events.csv`)}`, { headers: { cookie: operator } })
+    expect(csv.status).toBe(200)
+    expect(csv.headers.get('content-type')).toContain('text/csv')
+    const lines = (await csv.text()).trimEnd().split('\r\n')
+    expect(lines).toHaveLength(7)
+    expect(lines[0]).toContain('plant time (Europe/London)')
+    // RFC 4180 quoting of the comma, and the formula guard (OWASP CSV injection) on the leading '='.
+    expect(lines[4]).toContain(`"'=seen, level checked"`)
+    expect((await call(`/api/incidents/${incidentId}/events.csv`)).status).toBe(401)
   })
 })

@@ -31,10 +31,11 @@ export async function findTagHeader(db: Db, id: number): Promise<TagHeader | und
  * Good and uncertain samples of one tag since `fromSeconds`, oldest first, as epoch seconds.
  * Bad-quality readings are left out: the indicators must never be computed from them.
  */
-export async function loadSamplesSince(db: Db, tagId: number, fromSeconds: number) {
+export async function loadSamplesSince(db: Db, tagId: number, fromSeconds: number, toSeconds = Number.POSITIVE_INFINITY) {
+  const until = Number.isFinite(toSeconds) ? db.$sql`and time <= to_timestamp(${toSeconds})` : db.$sql``
   const rows = await db.$sql`
     select extract(epoch from time)::float8, value from samples
-    where tag_id = ${tagId} and time >= to_timestamp(${fromSeconds}) and quality < 2
+    where tag_id = ${tagId} and time >= to_timestamp(${fromSeconds}) ${until} and quality < 2
     order by time`.values()
   const times = new Float64Array(rows.length)
   const values = new Float64Array(rows.length)
@@ -60,23 +61,33 @@ export async function findTagRuleMarks(db: Db, tagId: number, fromS: number, toS
 
 /** The tag-detail charts for the range ending now, or undefined for an unknown tag. */
 export async function readTagSeries(db: Db, tagId: number, range: SeriesRange, nowMs = Date.now()) {
+  const to = nowMs / 1000
+  const view = await readTagSeriesBetween(db, tagId, to - SERIES_RANGES[range], to)
+  return view && { ...view, range }
+}
+
+/**
+ * The tag's charts over [from, to] (epoch seconds), or undefined for an unknown tag. With
+ * `atMostPerSample`, no more buckets than samples in the range: a short span (an incident) would
+ * otherwise leave most buckets empty and the gaps would break every line.
+ */
+export async function readTagSeriesBetween(db: Db, tagId: number, from: number, to: number, options: { atMostPerSample?: boolean } = {}) {
   const tag = await findTagHeader(db, tagId)
   if (!tag) return undefined
   const settings = chartIndicatorSettings(tag.samplePeriodS, tag.stored)
-  const to = nowMs / 1000
-  const from = to - SERIES_RANGES[range]
   // One window (and the trend filter's warm-up) before the range, so the indicators cover the
-  // whole displayed range, and at least the live trend window before now, so the judgement at
-  // the newest sample sees what the live pipeline sees.
+  // whole displayed range, and at least the live trend window before its end, so the judgement at
+  // the newest sample sees what the live pipeline saw.
   const period = tag.samplePeriodS
   const judged = (settings.live.trendWindowSamples * period) + settings.live.detrendBandwidthS
-  const { times, values } = await loadSamplesSince(db, tagId, Math.min(from - settings.windowSeconds - settings.live.detrendBandwidthS, to - judged))
-  const view = buildTagSeries({ times, values, grid: { from, to, count: DISPLAY_POINTS }, settings, seed: tagId })
+  // Samples after the range's end are left out: the view is the range as it was then.
+  const { times, values } = await loadSamplesSince(db, tagId, Math.min(from - settings.windowSeconds - settings.live.detrendBandwidthS, to - judged), to)
+  const count = options.atMostPerSample ? Math.max(2, Math.min(DISPLAY_POINTS, Math.floor((to - from) / period))) : DISPLAY_POINTS
+  const view = buildTagSeries({ times, values, grid: { from, to, count }, settings, seed: tagId })
   const rules = await findTagRuleMarks(db, tagId, from, to)
   const { stored: _stored, ...header } = tag
   return {
     tag: header,
-    range,
     from,
     to,
     latest: times.length ? { time: times[times.length - 1]!, value: values[values.length - 1]! } : null,
