@@ -4,7 +4,7 @@ import { url } from '@nuxt/test-utils/e2e'
 import { setupBuiltServer } from '../support/server'
 import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
 import { testSql } from '../support/db'
-import { tick, waitForDemoSite } from '../support/pipeline'
+import { createTestTag, ingestAll, tick, waitForDemoSite } from '../support/pipeline'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
 import { activation, insertOccurrence, insertRule, oneShot } from '../support/reviewFixtures'
 
@@ -26,8 +26,16 @@ beforeAll(async () => {
   await oneShot(sql, await insertRule(sql, { unitCode: 'T-400', alarmClass: 'alert', measure: 'early_warning' }), BASE + 5 * 3_600_000)
   await insertOccurrence(sql, await insertRule(sql, { unitCode: 'T-400', priority: 'high' }), [activation(BASE - 30 * 3_600_000)], null)
   // An approach on R-100: the slowing-down alert 20 min before the limit alarm, grouped by a tick.
-  await oneShot(sql, await insertRule(sql, { unitCode: 'R-100', alarmClass: 'alert', measure: 'early_warning', name: 'R-100 slowing down' }), BASE + 6 * 3_600_000)
-  await oneShot(sql, await insertRule(sql, { unitCode: 'R-100', priority: 'high', name: 'R-100 high temperature' }), BASE + 6 * 3_600_000 + 20 * MIN)
+  // The tag's samples (a slow sine with noise, ours) give the timeline something to draw; the tag is
+  // not watched, so the tick raises nothing from them.
+  const approach = BASE + 6 * 3_600_000
+  await createTestTag(sql, 'TT-950', 'R-100', 10)
+  await sql`update tags set watched = false where code = 'TT-950'`
+  await ingestAll(Array.from({ length: 540 }, (_, i) => ({
+    tag: 'TT-950', time: new Date(approach - 45 * MIN + i * 10_000).toISOString(), value: 380 + 4 * Math.sin(i / 40) + ((i * 7919) % 13) / 13,
+  })))
+  await oneShot(sql, await insertRule(sql, { unitCode: 'R-100', tagCode: 'TT-950', alarmClass: 'alert', measure: 'early_warning', name: 'R-100 slowing down' }), approach)
+  await oneShot(sql, await insertRule(sql, { unitCode: 'R-100', tagCode: 'TT-950', priority: 'high', name: 'R-100 high temperature' }), approach + 20 * MIN)
   await tick()
   context = await launchChromium()
 })
@@ -78,13 +86,47 @@ describe('supervisor review pages', () => {
     await expect.poll(() => signOff.textContent()).toContain('Signed off by Sam Okafor')
     expect(await page.getByTestId('findings').textContent()).toContain('Cooling water flow fell')
     await screenshot(page, 'review-incident-closed')
+    await page.getByTestId('incident-timeline').locator('canvas').first().waitFor()
+    await screenshot(page, 'review-incident-timeline')
     const path = new URL(page.url()).pathname
+    // The report, as Chromium prints it: every section, the caution, no navigation.
+    await page.goto(url(`${path}/report`))
+    await page.getByTestId('incident-report').waitFor()
+    await page.emulateMedia({ media: 'print' })
+    for (const section of ['early-warning', 'alarms', 'timeline', 'events', 'findings'])
+      expect(await page.locator(`[data-section="${section}"]`).isVisible(), section).toBe(true)
+    expect(await page.getByTestId('report-caution').textContent()).toContain('Advisory only')
+    expect(await page.getByTestId('report-sign-off').textContent()).toContain('Sam Okafor')
+    expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(false)
+    const pdf = await page.pdf({ format: 'A4', printBackground: true })
+    expect(pdf.subarray(0, 5).toString()).toBe('%PDF-')
+    await screenshot(page, 'review-incident-report-print')
+    await page.emulateMedia({ media: 'screen' })
     await context.clearCookies()
     await signInThroughForm(page, 'operator')
     await page.goto(url(path))
     await page.getByTestId('findings').waitFor()
     expect(await page.getByRole('button', { name: 'Save findings' }).count()).toBe(0)
     expect(await page.getByTestId('sign-off').textContent()).toContain('Sam Okafor')
+    await page.close()
+  })
+
+  it('the shift handover shows its four sections on one page and prints without the navigation', async () => {
+    await context.clearCookies()
+    const page = await context.newPage()
+    await signInThroughForm(page, 'operator')
+    await page.goto(url('/shift-log'))
+    await page.getByRole('link', { name: 'Handover page (prints)' }).click()
+    await page.getByTestId('shift-handover').waitFor()
+    for (const section of ['notes', 'alarms', 'shelved', 'incidents'])
+      expect(await page.locator(`[data-section="${section}"]`).isVisible(), section).toBe(true)
+    // The stale fixture alarm still stands; its unit's incident is not closed.
+    expect(await page.locator('[data-section="alarms"] tbody tr').count()).toBeGreaterThan(0)
+    expect(await page.locator('[data-section="incidents"]').textContent()).toContain('T-400')
+    await screenshot(page, 'shift-handover')
+    await page.emulateMedia({ media: 'print' })
+    expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(false)
+    await screenshot(page, 'shift-handover-print')
     await page.close()
   })
 })
