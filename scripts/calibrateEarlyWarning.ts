@@ -40,7 +40,7 @@ const settings = { ...defaultIndicatorSettings(1), alpha: 1 }
 
 function looksOf(record: StudyRecord): Look[] {
   const { times, values } = record.series
-  const { points } = evaluateRecord({ tagId: record.id, times, values, firstNew: 0, samplesSinceEvaluation: 0, samplePeriodS: 1, settings })
+  const { points } = evaluateRecord({ tagId: record.id, times, values, firstNew: 0, samplesSinceEvaluation: 0, samplePeriodS: 1, settings, slidingAlpha: 1 })
   // These records hold no step, so the usable data start one detrend bandwidth after the first sample.
   const usableFrom = times[0]! + settings.detrendBandwidthS
   return points.filter(pt => pt.pAr1 !== null).map(pt => ({
@@ -63,9 +63,13 @@ function raises(looks: readonly Look[], candidate: Candidate, slidingAlpha: numb
   }
   let state = INACTIVE
   const times: number[] = []
-  for (const look of looks) {
-    const alpha = trendWindowGrowing(settings, look.trendSamples) ? candidate.expandingAlpha : slidingAlpha
-    const step = stepCondition(condition, state, look.time, look.risingTogether && look.p <= alpha ? 1 : 0)
+  const alphaOf = (look: Look) => (trendWindowGrowing(settings, look.trendSamples) ? candidate.expandingAlpha : slidingAlpha)
+  for (const [i, look] of looks.entries()) {
+    // A sliding look needs the look before it to pass too (evaluateRecord confirmedEvidence; with
+    // α 1 here the engine only checked that it rose together, so its α is applied now).
+    const previous = looks[i - 1]
+    const confirmed = trendWindowGrowing(settings, look.trendSamples) || (previous !== undefined && previous.p <= alphaOf(previous))
+    const step = stepCondition(condition, state, look.time, look.risingTogether && look.p <= alphaOf(look) && confirmed ? 1 : 0)
     state = step.state
     if (step.change === 'activate') times.push(look.time)
   }
@@ -111,7 +115,10 @@ function report(groups: readonly Group[], candidate: Candidate): void {
     const perRecord = g.looks.map(l => raises(l, candidate, slidingAlpha))
     const alerted = perRecord.filter(r => r.length > 0).length
     const total = perRecord.reduce((s, r) => s + r.length, 0)
-    const rate = g.length === 'long' && !g.forced ? `  ${(1000 * total / (g.samples / DAY_S)).toFixed(0)} per 1,000 tag-days at 1 s` : ''
+    const windows = g.samples / settings.trendWindowSamples
+    const rate = g.length === 'long' && !g.forced
+      ? `  ${(1000 * total / (g.samples / DAY_S)).toFixed(0)} per 1,000 tag-days at 1 s, ${(total / windows / slidingAlpha).toFixed(1)} per window per α`
+      : ''
     console.log(`  ${(g.forced ? 'FORCED ' : 'null   ') + g.name.padEnd(34)} ${g.length.padEnd(5)} ${pct(alerted, perRecord.length)}${rate}`)
   }
 }

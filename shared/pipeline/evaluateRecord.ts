@@ -3,7 +3,7 @@
 // quality gate, the window's indicators, the stability-trend test with the early-warning
 // judgement, and the fold horizon. Windows expand: a tag is judged once `minTrendSamples`
 // usable samples follow its warm-up, and the trend window grows from there to its full size.
-import { judgeEvidence, varianceChange, type TrendEvidence } from '../analysis/earlyWarningDecision'
+import { judgeEvidence, varianceChange, type TrendEvidence, type VarianceChange } from '../analysis/earlyWarningDecision'
 import { foldProfile } from '../analysis/foldProfile'
 import { indicatorSeries } from '../analysis/indicatorSeries'
 import { indicatorsFromSums } from '../analysis/indicators'
@@ -12,7 +12,8 @@ import { accurateMean, centredSums } from '../analysis/moments'
 import { checkQuality, DEFAULT_QUALITY_LIMITS } from '../analysis/quality'
 import { createRng } from '../analysis/random'
 import { segmentedResiduals } from '../analysis/segmentedResiduals'
-import { stabilityTrendTest } from '../analysis/stabilityTrend'
+import { stabilityTrendTest, type StabilityTrendTest } from '../analysis/stabilityTrend'
+import { windowResiduals } from '../analysis/windowDetrend'
 import { slidingLookAlpha, trendWindowGrowing, type IndicatorSettings } from './indicatorDefaults'
 
 export interface EvaluationPoint {
@@ -57,6 +58,8 @@ export interface RecordInput {
   samplesSinceEvaluation: number
   samplePeriodS: number
   settings: IndicatorSettings
+  /** α of a look once the trend window slides; by default the tag's false-alert budget share (calibration sets its own). */
+  slidingAlpha?: number
 }
 
 /**
@@ -122,13 +125,9 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, usableFrom: Int
   const trendStart = Math.max(end + 1 - settings.trendWindowSamples, usable)
   if (end + 1 - trendStart < settings.minTrendSamples) return point
   const trendTimes = times.subarray(trendStart, end + 1)
-  const trendResiduals = residuals.subarray(trendStart, end + 1)
-  const judged = time('trend tests', () => {
-    const stability = stabilityTrendTest(trendResiduals, settings.surrogates, createRng(seedFor(input.tagId, times[end]!)))
-    const variance = varianceChange(trendResiduals, stability.fit.phiMiddle)
-    const alpha = lookAlpha(settings, input.samplePeriodS, end + 1 - trendStart)
-    return { stability, variance, evidence: judgeEvidence(stability, variance, alpha) }
-  })
+  const look = judgeLook(input, trendStart, end, time)
+  const trendResiduals = look.residuals
+  const judged = { ...look, evidence: confirmedEvidence(input, look, trendStart, end, usable, time) }
   const taus = time('trend tests', () => displayTaus(trendTimes, trendResiduals, settings))
   const rising = judged.stability.fit.slope > 0
   const fold = rising && judged.stability.p <= FOLD_GATE_P
@@ -145,14 +144,55 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, usableFrom: Int
   }
 }
 
+interface Look {
+  residuals: Float64Array
+  stability: StabilityTrendTest
+  variance: VarianceChange
+  evidence: TrendEvidence
+}
+
+/** The trend tests on the window [trendStart, end], detrended on its own (analysis/windowDetrend). */
+function judgeLook(input: RecordInput, trendStart: number, end: number, time: StageTimer): Look {
+  const { times, values, settings } = input
+  const residuals = time('detrend', () => windowResiduals(times, values, trendStart, end + 1))
+  return time('trend tests', () => {
+    const stability = stabilityTrendTest(residuals, settings.surrogates, createRng(seedFor(input.tagId, times[end]!)))
+    const variance = varianceChange(residuals, stability.fit.phiMiddle)
+    const alpha = lookAlpha(input, end + 1 - trendStart)
+    return { residuals, stability, variance, evidence: judgeEvidence(stability, variance, alpha) }
+  })
+}
+
+/**
+ * Once the trend window slides, a look says slowing down only when the look before it (one
+ * evaluation interval earlier) said so too: at the sliding phase's small α a single extreme look
+ * is likelier than the fitted tail says, and two in a row kept the false alerts per window per
+ * unit α at about 10 against 26–62 for one (indicatorDefaults.ts FALSE_ALERTS_PER_WINDOW_PER_ALPHA).
+ * While the window grows its looks are nested and α is larger, and one look suffices: waiting for
+ * a second cost a third of the fold approaches on short records. The earlier window is detrended
+ * on its own and seeded by its own end, so it is judged exactly as its look was; it is only
+ * re-tested when the current look passes, which on data without an approach is rare.
+ */
+function confirmedEvidence(input: RecordInput, look: Look, trendStart: number, end: number, usable: number, time: StageTimer): TrendEvidence {
+  const { settings } = input
+  if (look.evidence !== 'slowing down' || trendWindowGrowing(settings, end + 1 - trendStart)) return look.evidence
+  const previousEnd = end - settings.evaluateEvery
+  const previousStart = Math.max(previousEnd + 1 - settings.trendWindowSamples, usable)
+  const confirmed = previousEnd + 1 - previousStart >= settings.minTrendSamples
+    && judgeLook(input, previousStart, previousEnd, time).evidence === 'slowing down'
+  if (confirmed) return look.evidence
+  return look.variance.p <= lookAlpha(input, end + 1 - trendStart) ? 'noise level changed' : 'no trend'
+}
+
 /**
  * α of one look. While the trend window still grows from its minimum, successive looks are nested
  * (each adds `evaluateEvery` samples to the same data) and together spend about one test's worth
  * of error; once it slides, every trend window's worth of data brings a new chance, and the look
  * spends the tag's false-alert budget per day instead (indicatorDefaults.ts slidingLookAlpha).
  */
-function lookAlpha(settings: IndicatorSettings, samplePeriodS: number, trendSamples: number): number {
-  return trendWindowGrowing(settings, trendSamples) ? settings.alpha : slidingLookAlpha(settings, samplePeriodS)
+function lookAlpha(input: RecordInput, trendSamples: number): number {
+  if (trendWindowGrowing(input.settings, trendSamples)) return input.settings.alpha
+  return input.slidingAlpha ?? slidingLookAlpha(input.settings, input.samplePeriodS)
 }
 
 /**

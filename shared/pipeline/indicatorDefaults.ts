@@ -16,14 +16,14 @@ export interface IndicatorSettings {
 /**
  * The trend window expands from 200 usable samples (a judgement within a few hundred samples of a
  * start, a step or a new tag) to 1,200 (longer windows add power on slow approaches; the cost of a
- * bootstrap grows with them). Evaluated every 20 samples; α 0.008 per look while the window grows
+ * bootstrap grows with them). Evaluated every 20 samples; α 0.004 per look while the window grows
  * (those looks are nested, so together they spend about one test's worth of error), then the
  * false-alert budget below. Chosen by the whole-procedure study (numbers beside EARLY_WARNING_DELAYS).
  */
 const TREND_WINDOW_SAMPLES = 1200
 const MIN_TREND_SAMPLES = 200
 const EVALUATE_EVERY = 20
-const ALPHA = 0.008
+const ALPHA = 0.004
 
 export function defaultIndicatorSettings(samplePeriodS: number): IndicatorSettings {
   if (!(samplePeriodS > 0)) throw new RangeError(`sample period must be positive, got ${samplePeriodS}`)
@@ -61,32 +61,32 @@ export interface EvaluationDelays {
 }
 
 /**
- * The slowing-down alert raises when two evaluations in a row (on-delay one evaluation interval)
- * say "slowing down". A tag is re-tested every 20 samples on overlapping data for as long as it
- * runs (docs/science.md §S8.2), so the looks' α and the on-delay were set on whole records by
- * scripts/calibrateEarlyWarning.ts (the detection study's simulations, seeds the benchmark does
- * not score; 100 records of 500 samples per set, 4 streams of 10,000 per set) — records alerted:
+ * The slowing-down alert raises on the first evaluation that says "slowing down" (no on-delay of
+ * its own): once the trend window slides, the engine already asks for two looks in a row
+ * (evaluateRecord.ts confirmedEvidence), and while it grows one look suffices. A tag is re-tested
+ * every 20 samples on overlapping data for as long as it runs (docs/science.md §S8.2), so the
+ * looks' α and the delays were set on whole records by scripts/calibrateEarlyWarning.ts (the
+ * detection study's simulations, seeds the benchmark does not score; 100 records of 500 samples
+ * per set) — records alerted, trend window detrended on its own (analysis/windowDetrend.ts):
  *   α while growing  on-delay  harvesting fold  lake fold  worst short null (of 13 kinds)
- *   0.005            1         14/100           5/100      2/100
- *   0.008            1 chosen  19/100           6/100      4/100 (white meas. noise; quantised)
- *   0.01             1         21/100           7/100      5/100
- *   0.004            0         23/100           8/100      4/100
- *   0.005            0         28/100          10/100      6/100
- * Without the on-delay single extreme looks raise: on long null streams the sliding phase then
- * raised 26–62 alerts per trend window per unit α at α 0.001–0.0003 (the bootstrap's fitted normal
- * tail is too thin that far out), against a steady 9–11 with it; the on-delay is kept.
- * Power on short records is the open problem: records that stop far from the fold are missed
- * (scripts/bench/earlyWarning.ts lists them). The off-delay keeps a raised alert through a few
- * weaker evaluations.
+ *   0.008            1         25/100           13/100     4/100
+ *   0.003            0         34/100           25/100     3/100
+ *   0.004            0 chosen  37/100           28/100     4/100 (white meas. noise)
+ *   0.005            0         37/100           30/100     5/100
+ * (with the causal detrender's residuals, 0.008 and on-delay 1 gave 19 and 6 of 100). Records that
+ * stop far from the fold are still missed (scripts/bench/earlyWarning.ts lists them). The
+ * off-delay keeps a raised alert through a few weaker evaluations.
  */
-export const EARLY_WARNING_DELAYS: EvaluationDelays = { onDelayEvaluations: 1, offDelayEvaluations: 4 }
+export const EARLY_WARNING_DELAYS: EvaluationDelays = { onDelayEvaluations: 0, offDelayEvaluations: 4 }
 export const FOLD_IN_VIEW_DELAYS: EvaluationDelays = { onDelayEvaluations: 1, offDelayEvaluations: 3 }
 
 const DAY_S = 86_400
 /**
  * False slowing-down alerts a sliding trend window raises per unit of look α, per trend window's
- * worth of data, overlapping looks and the on-delay included: 8.5–10.6 on the long null streams of
- * scripts/calibrateEarlyWarning.ts at α 0.0003–0.03 (378 windows, 13 null kinds).
+ * worth of data, overlapping looks and the two-look confirmation included: 8.5–10.6 on the long
+ * null streams of scripts/calibrateEarlyWarning.ts at α 0.0003–0.03 (378 windows, 13 null kinds)
+ * with the causal residuals; 3–24 per null kind, about 10 over all of them, at α 0.003–0.01 with the
+ * window detrended on its own (4 streams of 10,000 samples per kind, 364 windows).
  */
 export const FALSE_ALERTS_PER_WINDOW_PER_ALPHA = 10
 

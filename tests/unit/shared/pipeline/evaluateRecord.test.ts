@@ -5,8 +5,8 @@
 import { describe, expect, it } from 'vitest'
 import { createRng } from '#shared/analysis/random'
 import { simulateOu } from '#shared/analysis/simulate'
-import { evaluateRecord, SETTLING } from '#shared/pipeline/evaluateRecord'
-import { defaultIndicatorSettings } from '#shared/pipeline/indicatorDefaults'
+import { evaluateRecord, SETTLING, type EvaluationPoint } from '#shared/pipeline/evaluateRecord'
+import { defaultIndicatorSettings, slidingLookAlpha } from '#shared/pipeline/indicatorDefaults'
 
 const settings = defaultIndicatorSettings(1)
 
@@ -79,5 +79,36 @@ describe('a fold approach against a steady series (seeded, many records)', () =>
     expect(projected.length).toBeGreaterThanOrEqual(RECORDS * 0.6)
     expect(covering.length).toBeGreaterThanOrEqual(projected.length * 0.8)
     expect(steadies.filter(p => p.fold.kind === 'projected').length).toBeLessThanOrEqual(3)
+  })
+})
+
+describe('once the trend window slides, slowing down takes two looks in a row', () => {
+  // A 60 s tag with a 400-sample trend window: windows slide early, and the sliding look's α
+  // (slidingLookAlpha) is large enough for looks to pass. Fold approaches as above.
+  const period = 60
+  const sliding = { ...defaultIndicatorSettings(period), trendWindowSamples: 400 }
+  const FOLD = 1_300
+  const records = Array.from({ length: 20 }, (_, s) => {
+    const series = simulateOu({ samples: 1_200, dt: 1, k: (t: number) => 0.5 * Math.sqrt(1 - t / FOLD), sigma: 0.2 }, createRng(300 + s))
+    const times = series.times.map(t => t * period)
+    return evaluateRecord({ tagId: s, times, values: series.values, firstNew: 0, samplesSinceEvaluation: 0, samplePeriodS: period, settings: sliding }).points
+  })
+  const slidingAlpha = slidingLookAlpha(sliding, period)
+  const usableFrom = sliding.detrendBandwidthS / period
+  const isSliding = (p: EvaluationPoint) => p.time / period + 1 - usableFrom >= sliding.trendWindowSamples
+
+  it('never says slowing down on a sliding look whose predecessor failed its own α', () => {
+    let said = 0
+    for (const points of records) {
+      points.forEach((p, i) => {
+        if (!isSliding(p) || p.evidence !== 'slowing down') return
+        said++
+        const previous = points[i - 1]!
+        expect(previous.pAr1).not.toBeNull()
+        expect(previous.pAr1!).toBeLessThanOrEqual(isSliding(previous) ? slidingAlpha : sliding.alpha)
+      })
+    }
+    // The rule is exercised: the approaches do raise on sliding looks.
+    expect(said).toBeGreaterThanOrEqual(2)
   })
 })
