@@ -227,7 +227,7 @@ export async function run(): Promise<void> {
   const s = defaultIndicatorSettings(NULL_PERIOD_S)
   console.log('Live early-warning alarm (evaluateRecord + demo rule delays), seeded simulations')
   console.log(`  settings: window ${s.windowSamples}, trend window ${s.trendWindowSamples}, every ${s.evaluateEvery} samples, ${s.surrogates} surrogates, α ${s.alpha}, first judgement after ${s.minTrendSamples} samples; `
-    + `on-delay ${EARLY_WARNING_DELAYS.onDelayEvaluations} evaluations`)
+    + `on-delay ${EARLY_WARNING_DELAYS.onDelayEvaluations} evaluations (a sliding look needs the one before it)`)
   report('steady unit T-400 (seeds 1–12)', steadyUnitNulls(Array.from({ length: 12 }, (_, i) => i + 1)))
   NULL_SCENARIOS.forEach((scenario, i) => report(scenario.name, scenarioNulls(scenario.make, 16, 7000 + i)))
   for (const result of demoApproaches([1, 2, 3, 4, 5, 6])) reportApproach(result)

@@ -45,7 +45,8 @@ function printConventions(plan: StudyPlan, quick: boolean): void {
   const longKinds = c.longNullKinds === 'all' ? 'every null kind' : c.longNullKinds.join('; ')
   console.log(`  Records per set: forced/own-null/each other null = ${c.forcedShort}/${c.modelNullShort}/${c.nullShort} short, ${c.forcedLong}/${c.modelNullLong}/${c.nullLong} long (long nulls: ${longKinds}).`)
   console.log(`  LIVE (scripts/bench/detection.ts liveRun → evaluateRecord, defaultIndicatorSettings(1)): window ${s.windowSamples}, trend window ${s.trendWindowSamples}, `
-    + `every ${s.evaluateEvery} samples, ${s.surrogates} surrogates, α ${s.alpha}; alert after ${EARLY_WARNING_DELAYS.onDelayEvaluations} + 1 evaluations of evidence, clears after ${EARLY_WARNING_DELAYS.offDelayEvaluations}.`)
+    + `every ${s.evaluateEvery} samples, ${s.surrogates} surrogates, α ${s.alpha} while the trend window grows; alert after ${EARLY_WARNING_DELAYS.onDelayEvaluations} + 1 evaluations of evidence `
+    + `(a sliding look needs the one before it), clears after ${EARLY_WARNING_DELAYS.offDelayEvaluations}.`)
   console.log(`    Score = 1 − pAr1 and tip projection of the last evaluation point.`)
   console.log(`  Dakos: Gaussian kernel detrend, bandwidth ${100 * DAKOS_BANDWIDTH_FRACTION}% of the record; rolling window ${100 * DAKOS_WINDOW_FRACTION}%; Kendall τ of AR1 and variance; `
     + `${plan.budget.surrogates} AR(1) surrogates, p = (1 + #≥)/(N + 1), α ${DAKOS_ALPHA} (also ${PRODUCT_ALPHA}).`)
