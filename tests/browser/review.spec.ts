@@ -68,6 +68,13 @@ describe('supervisor review pages', () => {
     const row = page.getByTestId('incident-list').locator('tr', { hasText: 'R-100' })
     await row.waitFor()
     expect(await row.textContent()).toContain('20 min before')
+    // The site's window, set by the supervisor from the list (30 min by default).
+    const windowField = page.getByRole('spinbutton', { name: 'Incident window' })
+    await expect.poll(() => windowField.inputValue()).toBe('30')
+    await windowField.fill('45')
+    await page.getByRole('form', { name: 'Incident window' }).getByRole('button', { name: 'Save' }).click()
+    await page.getByText('Saved.').waitFor()
+    expect(Number((await sql`select incident_window_s from site_review_settings`)[0]!.incident_window_s)).toBe(2700)
     await screenshot(page, 'review-incidents')
     await row.getByRole('link').click()
     const verdict = page.getByTestId('early-warning-verdict')
