@@ -1,3 +1,4 @@
+import type postgres from 'postgres'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { CATALOGUE, type CatalogueUnit } from '../../shared/demo/catalogue'
 import { seededNormal } from '../../simulators/lib/random'
@@ -101,6 +102,20 @@ describe('early warning over simulated plants (docs/design.md §D11 detection)',
     const leadMinutes = (tipMs! + shift - new Date(warning!.raised_at).getTime()) / 60_000
     console.log(`early-warning alert ${leadMinutes.toFixed(1)} min before the tip`)
     expect(leadMinutes).toBeGreaterThan(2)
+    // The same tick grouped the bus's alarms into one incident (shared/alarms/incidents.ts), which
+    // records the product's measure: the first slowing-down alert before the first limit alarm.
+    const [incident] = await sql`select i.id, i.lead_time_s from incidents i join incident_alarms ia on ia.incident_id = i.id
+      join alarms a on a.id = ia.alarm_id where a.tag_id = ${voltage} and a.measure = 'early_warning' limit 1`
+    expect(incident, 'the alert is in no incident').toBeTruthy()
+    const members = await sql`select a.raised_at, a.measure, a.class from incident_alarms ia join alarms a on a.id = ia.alarm_id
+      where ia.incident_id = ${incident!.id}`
+    const firstOf = (keep: (m: postgres.Row) => boolean) => Math.min(...members.filter(keep).map(m => new Date(m.raised_at).getTime()))
+    const limitAt = firstOf(m => m.measure === 'value' && m.class === 'alarm')
+    expect(Number.isFinite(limitAt), `no limit alarm on the approach; members: ${JSON.stringify(members)}`).toBe(true)
+    const leadS = (limitAt - firstOf(m => m.measure === 'early_warning')) / 1000
+    console.log(`incident ${incident!.id}: early warning ${(leadS / 60).toFixed(1)} min before the limit alarm`)
+    expect(Number(incident!.lead_time_s)).toBeCloseTo(leadS, 6)
+    expect(leadS).toBeGreaterThan(0)
     // The unit's slow mode (docs/science.md §S5): each tag's share of the leading left eigenvector,
     // normalised to sum to 1, stored once the tick has processed both tags.
     const [mode] = await sql`select m.shares, m.recovery_rate from unit_slow_mode m join units u on u.id = m.unit_id where u.code = 'B-391'`
