@@ -167,7 +167,7 @@ function judgeLook(input: RecordInput, trendStart: number, end: number, time: St
  * Once the trend window slides, a look says slowing down only when the look before it (one
  * evaluation interval earlier) said so too: at the sliding phase's small α a single extreme look
  * is likelier than the fitted tail says, and two in a row kept the false alerts per window per
- * unit α at about 10 against 26–62 for one (indicatorDefaults.ts FALSE_ALERTS_PER_WINDOW_PER_ALPHA).
+ * unit α at 3–24 per null kind against 26–62 for one (indicatorDefaults.ts FALSE_ALERTS_PER_WINDOW_PER_ALPHA).
  * While the window grows its looks are nested and α is larger, and one look suffices: waiting for
  * a second cost a third of the fold approaches on short records. The earlier window is detrended
  * on its own and seeded by its own end, so it is judged exactly as its look was; it is only
