@@ -69,6 +69,14 @@ const idRoutes: IdRoute[] = [
   { role: 'engineer', method: 'POST', route: '/api/units/:id/retire' },
   { role: 'engineer', method: 'POST', route: '/api/units/:id/restore' },
   { role: 'engineer', method: 'GET', route: '/api/units/:id/slow-mode' },
+  { role: 'supervisor', method: 'GET', route: '/api/incidents/:id' },
+  { role: 'supervisor', method: 'GET', route: '/api/incidents/:id/timeline' },
+  { role: 'supervisor', method: 'GET', route: '/api/incidents/:id/events.csv' },
+  { role: 'supervisor', method: 'PATCH', route: '/api/incidents/:id', json: { cause: 'probe' } },
+  { role: 'supervisor', method: 'POST', route: '/api/incidents/:id/state', json: { state: 'under_review' } },
+  { role: 'supervisor', method: 'POST', route: '/api/incidents/:id/merge', json: { incidentId: 1 } },
+  { role: 'supervisor', method: 'POST', route: '/api/incidents/:id/split', json: { alarmIds: [1] } },
+  { role: 'supervisor', method: 'PUT', route: '/api/review/alert-outcomes/:id', json: { outcome: 'false' } },
 ]
 
 // Ids carried in a query or a body, by field.
@@ -87,6 +95,12 @@ const idFields: ((big: string) => Case)[] = [
     json: { unitId, code: 'TI-9901', description: 'Probe', engineeringUnit: 'K', samplePeriodS: 1, rangeLow: 0, rangeHigh: 1, loopTagId: Number(big), loopRole: 'measurement' },
   }),
   big => ({ role: 'engineer', method: 'POST', path: () => `/api/uploads/preview?siteId=${big}`, field: 'siteId' }),
+  big => ({ role: 'supervisor', method: 'GET', path: () => `/api/review/health?siteId=${big}`, field: 'siteId' }),
+  big => ({ role: 'supervisor', method: 'GET', path: () => `/api/incidents?unitId=${big}`, field: 'unitId' }),
+  big => ({ role: 'supervisor', method: 'POST', path: () => '/api/incidents', json: { unitId: Number(big), alarmIds: [1] }, field: 'unitId' }),
+  big => ({ role: 'supervisor', method: 'POST', path: () => '/api/incidents/1/merge', json: { incidentId: Number(big) }, field: 'incidentId' }),
+  big => ({ role: 'supervisor', method: 'POST', path: () => '/api/incidents/1/split', json: { alarmIds: [Number(big)] }, field: 'alarmIds.0' }),
+  big => ({ role: 'supervisor', method: 'PUT', path: () => '/api/review/settings', json: { siteId: Number(big), incidentWindowS: 600 }, field: 'siteId' }),
   big => ({ role: 'engineer', method: 'POST', path: () => `/api/uploads/import?siteId=${big}&format=long&timeColumn=t&tagColumn=g&valueColumn=v`, field: 'siteId' }),
 ]
 
@@ -111,6 +125,9 @@ const nulCases: Case[] = [
   { role: 'engineer', method: 'PUT', path: () => `/api/tags/${tagId}/indicator-settings`, json: { settings: {}, reason: NUL }, field: 'reason' },
   { role: 'engineer', method: 'POST', path: () => `/api/uploads/import?siteId=${siteId}&format=long&timeColumn=${encodeURIComponent(NUL)}&tagColumn=g&valueColumn=v`, field: 'timeColumn' },
   { role: 'admin', method: 'POST', path: () => '/api/admin/gateways', json: { siteId, name: NUL }, field: 'name' },
+  { role: 'supervisor', method: 'PATCH', path: () => '/api/incidents/1', json: { cause: NUL }, field: 'cause' },
+  { role: 'supervisor', method: 'POST', path: () => '/api/incidents', json: { unitId, alarmIds: [1], title: `Probe ${NUL}` }, field: 'title' },
+  { role: 'supervisor', method: 'PUT', path: () => '/api/review/alert-outcomes/1', json: { outcome: 'false', note: NUL }, field: 'note' },
   { role: 'admin', method: 'POST', path: () => '/api/admin/users', json: { email: 'probe@example.com', name: `Pro${NUL}`, role: 'operator' }, field: 'name' },
   { role: 'admin', method: 'POST', path: () => '/api/admin/users', json: { email: `pro${NUL}be@example.com`, name: 'Probe', role: 'operator' }, field: 'email' },
   { role: 'admin', method: 'PATCH', path: () => '/api/admin/users/1', json: { name: `Pro${NUL}` }, field: 'name' },
@@ -127,6 +144,7 @@ const timeCases: Case[] = [
   { role: 'supervisor', method: 'GET', path: () => '/api/alarms?view=history&from=10000-01-01', field: 'from' },
   { role: 'supervisor', method: 'GET', path: () => '/api/alarms?view=history&to=%2B010000-01-01T00:00:00Z', field: 'to' },
   { role: 'supervisor', method: 'POST', path: () => '/api/shift-log', json: { body: 'probe', at: '10000-01-01T00:00:00Z' }, field: 'at' },
+  { role: 'supervisor', method: 'GET', path: () => '/api/review/health?from=10000-01-01&to=10000-01-02', field: 'from' },
 ]
 
 const cases: Case[] = [
