@@ -7,6 +7,7 @@ import { testSql } from '../support/db'
 import { createTestTag, ingestAll, tick, waitForDemoSite } from '../support/pipeline'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
 import { activation, insertOccurrence, insertRule, oneShot } from '../support/reviewFixtures'
+import { wallClockText } from '../../shared/utils/timeText'
 
 await setupBuiltServer(MANUAL_TICKS_ENV)
 const sql = testSql()
@@ -57,6 +58,15 @@ describe('supervisor review pages', () => {
     expect(await page.getByTestId('chattering').textContent()).toContain('Review chatter fixture')
     expect(await page.getByTestId('stale').locator('li').count()).toBe(1)
     await screenshot(page, 'review-health')
+    // A chosen period, typed on the plant's clock: the flood's hour alone is 12 alarms in 6 periods.
+    await page.getByRole('radio', { name: 'chosen period' }).click()
+    const zoneOf = (await sql`select time_zone from sites limit 1`)[0]!.time_zone as string
+    const wall = (ms: number) => wallClockText(new Date(ms).toISOString(), zoneOf).slice(0, 16)
+    await page.getByLabel(/^From/).fill(wall(BASE))
+    await page.getByLabel(/^To/).fill(wall(BASE + 3_600_000))
+    await page.getByRole('button', { name: 'Show' }).click()
+    await expect.poll(() => page.getByText(/ten-minute periods/).textContent()).toContain('12 alarms and 0 advisory alerts')
+    expect(await page.getByText(/ten-minute periods/).textContent()).toContain('in 6 ten-minute periods')
     await page.close()
   })
 
