@@ -131,7 +131,9 @@ function evaluateAt(input: RecordInput, residuals: Float64Array, usableFrom: Int
   const taus = time('trend tests', () => displayTaus(trendTimes, trendResiduals, settings))
   const rising = judged.stability.fit.slope > 0
   const fold = rising && judged.stability.p <= FOLD_GATE_P
-    ? time('fold horizon', () => foldOf(trendTimes, trendResiduals, times[end]!))
+    // The horizon is fitted to the causal residuals: on the window's own residuals the end effect
+    // of the kernel smooth (windowDetrend.ts) made the band miss the lake fold on 5 of 8 projections.
+    ? time('fold horizon', () => foldOf(trendTimes, residuals.subarray(trendStart, end + 1), times[end]!))
     : { kind: 'none' as const }
   return {
     ...point,
