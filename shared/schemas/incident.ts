@@ -11,6 +11,8 @@ const alarmIds = z.array(dbId('alarm'), { required_error: 'is required (a list o
 export const incidentListQuerySchema = z.object({
   state: z.enum(INCIDENT_STATES, { errorMap: () => ({ message: `must be one of ${INCIDENT_STATES.join(', ')}` }) }).optional(),
   unitId: dbId('unit').optional(),
+  /** The incident that holds this alarm (at most one). */
+  alarmId: dbId('alarm').optional(),
   limit: z.coerce.number({ invalid_type_error: 'must be a number' }).int().min(1, 'must be at least 1').max(500, 'must be at most 500').default(200),
 })
 export type IncidentListQuery = z.infer<typeof incidentListQuerySchema>

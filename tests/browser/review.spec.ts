@@ -128,6 +128,21 @@ describe('supervisor review pages', () => {
     await page.close()
   })
 
+  it('a supervisor opens an incident by hand from an alarm\'s page', async () => {
+    await context.clearCookies()
+    const page = await context.newPage()
+    await signInThroughForm(page, 'supervisor')
+    const [alarm] = await sql`select a.id from alarms a join alarm_rules r on r.id = a.rule_id where r.name = 'Review chatter fixture'`
+    await page.goto(url(`/alarms/${alarm!.id}`))
+    const box = page.getByTestId('alarm-incident')
+    await expect.poll(() => box.textContent()).toContain('Incident: #')
+    await box.getByRole('button', { name: 'Open a new incident with it' }).click()
+    await page.waitForURL(/\/review\/incidents\/\d+$/)
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain('T-400: opened by hand')
+    expect(await page.getByTestId('incident-members').locator('tbody tr').count()).toBe(1)
+    await page.close()
+  })
+
   it('the shift handover shows its four sections on one page and prints without the navigation', async () => {
     await context.clearCookies()
     const page = await context.newPage()

@@ -128,6 +128,8 @@ describe('supervisors merge, split, open, review and close; everyone reads', () 
     expect(await membersOf(opened.body.id)).toEqual([ids.other])
     expect((await call(`/api/incidents/${was}`, { cookie: operator })).status).toBe(404)
     expect((await call(`/api/incidents/${opened.body.id}`, { cookie: operator })).body).toMatchObject({ origin: 'manual', title: 'Digester upset' })
+    const holding = await call(`/api/incidents?alarmId=${ids.other}`, { cookie: operator })
+    expect(holding.body.map((i: { id: number }) => i.id)).toEqual([opened.body.id])
   })
 
   it('open → under review → closed with findings and a sign-off by name and time; closed stays closed', async () => {

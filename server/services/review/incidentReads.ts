@@ -14,6 +14,7 @@ export async function listIncidents(db: Db, q: IncidentListQuery) {
   const where: SQL[] = []
   if (q.state) where.push(eq(incidents.state, q.state))
   if (q.unitId) where.push(eq(incidents.unitId, q.unitId))
+  if (q.alarmId) where.push(sql`${incidents.id} in (select incident_id from incident_alarms where alarm_id = ${q.alarmId})`)
   const rows = await db.select({
     id: incidents.id, title: incidents.title, state: incidents.state, origin: incidents.origin, unitId: incidents.unitId,
     unitCode: units.code, unitName: units.name, leadTimeS: incidents.leadTimeS, earlyWarningAt: incidents.earlyWarningAt,
