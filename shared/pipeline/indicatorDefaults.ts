@@ -86,8 +86,7 @@ const DAY_S = 86_400
  * worth of data, overlapping looks and the two-look confirmation included, for the worst null kind:
  * 3–24 per null kind at α 0.003–0.01 on the long null streams of scripts/calibrateEarlyWarning.ts
  * (4 streams of 10,000 samples per kind, 364 windows), the most for AR(1) φ 0.9. Sized for that
- * one, as slow-memory loops are common in plants: with 10 (the average over the kinds) a week of
- * trend-free OU at φ 0.9 raised 7 alerts in 16 tag-weeks, three times the budget (bench detection).
+ * one, as slow-memory loops are common in plants, rather than for the average (10).
  */
 export const FALSE_ALERTS_PER_WINDOW_PER_ALPHA = 25
 
