@@ -8,7 +8,7 @@ import { NO_DATA_PERIODS } from '../utils/tileStatus'
 import { number } from '../notifications/format'
 
 /**
- * A stability-trend p at or below this puts the tag on watch before it is significant (α 0.001).
+ * A stability-trend p at or below this puts the tag on watch before it is significant (α 0.004 or less).
  * A calibrated p is at most 0.1 on a tenth of a steady tag's looks, so 0.1 kept steady tags on watch.
  */
 export const WATCH_P = 0.01
@@ -42,6 +42,8 @@ export function deriveTagStatus(input: StatusInput): { status: TagStatus, reason
   if (p?.evidence === 'noise level changed') return { status: 'watch', reason: 'noise level changed (variance up without slowing down)' }
   if (p?.pAr1 !== null && p?.pAr1 !== undefined && p.pAr1 <= WATCH_P)
     return { status: 'watch', reason: `autocorrelation rising (p ${number(p.pAr1)})` }
+  // Past the warm-up but short of the first trend window: indicators, no judgement yet.
+  if (p && p.evidence === null) return { status: 'steady', reason: 'trend test pending (the trend window is still filling)' }
   return { status: 'steady', reason: '' }
 }
 

@@ -21,6 +21,18 @@ describe('tile status of a tag that is not judged yet', () => {
     expect(status({ ...warming, quality: SETTLING }).status).toBe('watch')
   })
 
+  it('past the warm-up, before the first trend test: steady with "trend test pending", never a verdict', () => {
+    // One bandwidth of warm-up (50) plus the quality gate's 100 samples, short of the 200 of a trend window.
+    const n = 200
+    const t = Float64Array.from({ length: n }, (_, i) => i)
+    const v = Float64Array.from(t, x => Math.sin(x / 3) + 0.3 * Math.cos(x * 1.7))
+    const point = evaluateRecord({ tagId: 1, times: t, values: v, firstNew: n - 1, samplesSinceEvaluation: settings.evaluateEvery - 1, samplePeriodS: 1, settings }).points[0]!
+    expect(point.quality).toBeNull()
+    expect(point.evidence).toBeNull()
+    expect(deriveTagStatus({ now: n, latestTime: n - 1, samplePeriodS: 1, latest: point, openAlarms: [] }))
+      .toEqual({ status: 'steady', reason: 'trend test pending (the trend window is still filling)' })
+  })
+
   it('a real data fault stays bad quality', () => {
     expect(status({ ...warming, quality: 'stuck: all 40 values equal 1' }).status).toBe('bad quality')
   })
