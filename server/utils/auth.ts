@@ -55,3 +55,19 @@ export async function requireCapability(event: H3Event, capability: Capability):
     throw createError({ statusCode: 403, message: `Your role (${user.role}) may not ${capability}` })
   return user
 }
+
+/**
+ * Signs in with a new session and a new session id. The session is not merged into whatever the
+ * browser carried (its old last-seen time included), and its id is not kept either: h3 reads the
+ * id back from the request's cookie after a clear, so a browser that still sent a signed-out
+ * session would get that revoked id again and read "signed out" at once. A new id at sign-in is
+ * also the rule against session fixation (OWASP Session Management Cheat Sheet).
+ */
+export async function startFreshSession(event: H3Event, data: Parameters<typeof replaceUserSession>[1]): Promise<void> {
+  const name = (useRuntimeConfig(event).session as { name?: string }).name ?? 'nuxt-session'
+  const cookie = event.node.req.headers.cookie
+  if (cookie) {
+    event.node.req.headers.cookie = cookie.split(';').filter(part => part.split('=')[0]!.trim() !== name).join(';')
+  }
+  await replaceUserSession(event, data)
+}

@@ -65,4 +65,17 @@ describe('sign-in and role checks on the server', () => {
     expect(replayed.status).toBe(401)
     expect(replayed.body.message).toMatch(/signed out/)
   })
+
+  it('gives a new session id at every sign-in, even when the browser still sends an old cookie', async () => {
+    // OWASP Session Management Cheat Sheet: renew the session ID after any privilege level change,
+    // sign-in included (session fixation) [common practice]. A signed-out id carried into the next
+    // sign-in would make the fresh session read "signed out" at once.
+    const old = await signInAs('operator')
+    expect((await call('/api/session/sign-out', { method: 'POST', cookie: old })).status).toBe(200)
+    const again = await call('/api/public/sign-in', { method: 'POST', cookie: old, json: { email: demoEmail('operator'), password: DEMO_PASSWORD } })
+    expect(again.status).toBe(200)
+    const fresh = again.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
+    expect(fresh).not.toBe(old)
+    expect((await call('/api/units', { cookie: fresh })).status).toBe(200)
+  })
 })

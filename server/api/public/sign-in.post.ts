@@ -20,7 +20,6 @@ export default defineEventHandler(async (event) => {
   await writeAudit(db, { userId: user.id, action: 'sign-in', target: email, address })
   const sessionUser = { id: user.id, email: user.email, name: user.name, role: user.role }
   const now = Date.now()
-  // A new session, not merged into whatever the browser carried (its old last-seen time included).
-  await replaceUserSession(event, { user: sessionUser, loggedInAt: now, lastSeenAt: now })
+  await startFreshSession(event, { user: sessionUser, loggedInAt: now, lastSeenAt: now })
   return { user: sessionUser }
 })
