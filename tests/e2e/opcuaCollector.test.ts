@@ -1,0 +1,137 @@
+import { mkdtempSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { OpcuaPlantServer, type PlantQuality } from '../../simulators/lib/opcuaPlantServer'
+import { testSql } from '../support/db'
+import { MANUAL_TICKS_ENV } from '../support/mailbox'
+import { eventually, freeLoopbackPort } from '../support/opcua'
+import { createTestTag, waitForDemoSite } from '../support/pipeline'
+import { setupBuiltServer } from '../support/server'
+
+// Issue 17 item 2: a real node-opcua server on loopback, in this process, feeds the collector of
+// the built Brinkline server. Checks follow IEC 62541: status severity decides quality (Part 4
+// §7.39), the source timestamp is the sample's time (Part 4 §7.7), history fills a gap (Part 11),
+// and the server's own request log shows the client sent no Write, Call or node management (Part 4
+// §5.8, §5.10.4, §5.11).
+const pki = mkdtempSync(join(tmpdir(), 'brinkline-opcua-test-'))
+const TAGS = ['OP-101', 'OP-102']
+const plant = new OpcuaPlantServer({
+  port: await freeLoopbackPort(),
+  pkiDir: join(pki, 'plant'),
+  historyValues: 10_000,
+  units: [{ name: 'Test unit', tags: TAGS.map(code => ({ code, description: `Test ${code}`, engineeringUnit: 'K', rangeLow: 0, rangeHigh: 1000 })) }],
+})
+await plant.start()
+await setupBuiltServer({
+  ...MANUAL_TICKS_ENV,
+  BRINKLINE_OPCUA_COLLECTOR: '1',
+  BRINKLINE_OPCUA_POLL_MS: '300',
+  BRINKLINE_OPCUA_MAX_BACKOFF_MS: '1000',
+  BRINKLINE_OPCUA_PKI_DIR: join(pki, 'client'),
+})
+const sql = testSql()
+afterAll(async () => {
+  await sql.end()
+  await plant.stop()
+})
+
+// Source times a second apart, well in the past so no skew check is near.
+const T0 = Date.now() - 3_600_000
+let next = 0
+const published: { tag: string, timeMs: number, value: number, quality: PlantQuality }[] = []
+function publish(tag: string, quality: PlantQuality = 'good') {
+  const i = next++
+  const reading = { tag, timeMs: T0 + 1000 * i, value: 300 + (i % 17) / 4, quality }
+  published.push(reading)
+  plant.publish(tag, reading.value, reading.timeMs, quality)
+}
+
+const stored = (tag: string) => sql<{ time: Date, value: number, quality: number }[]>`
+  select s.time, s.value, s.quality from samples s join tags t on t.id = s.tag_id where t.code = ${tag} order by s.time`
+async function storedAll(tag: string, count: number) {
+  return eventually(`${count} samples of ${tag}`, async () => {
+    const rows = await stored(tag)
+    if (rows.length >= count) return rows
+    const [c] = await sql`select state, last_error from opcua_connections where id = ${connectionId}`
+    throw new Error(`${rows.length} stored; connection ${c!.state}, last error ${c!.last_error}`)
+  })
+}
+const expectedOf = (tag: string) => published.filter(p => p.tag === tag)
+const QUALITY = { good: 0, uncertain: 1, bad: 2 }
+
+let connectionId = 0
+beforeAll(async () => {
+  await waitForDemoSite(sql)
+  for (const tag of TAGS) await createTestTag(sql, tag, 'T-400', 1)
+  // The first value of each tag is on the server before the collector subscribes.
+  for (const tag of TAGS) publish(tag)
+  const [row] = await sql`
+    insert into opcua_connections (site_id, name, endpoint_url, sampling_interval_ms, publishing_interval_ms)
+    select site_id, 'Test plant', ${plant.endpointUrl}, 0, 200 from units where code = 'T-400' returning id`
+  connectionId = row!.id as number
+  await sql`
+    insert into opcua_mappings (connection_id, node_id, tag_id, display_name)
+    select ${connectionId}, 'ns=1;s=' || code, id, code from tags where code = any(${TAGS})`
+  await eventually('the collector to connect', async () => {
+    const [c] = await sql`select state, last_error from opcua_connections where id = ${connectionId}`
+    if (c!.state !== 'connected') throw new Error(`state ${c!.state}, last error ${c!.last_error}`)
+    return true
+  })
+})
+
+describe('OPC UA collector', { timeout: 400_000 }, () => {
+  it('stores every published value under its source timestamp, and reports the connection', async () => {
+    for (let k = 0; k < 30; k++) publish(TAGS[k % 2]!)
+    for (const tag of TAGS) {
+      const rows = await storedAll(tag, expectedOf(tag).length)
+      expect(rows.map(r => [r.time.getTime(), r.value, r.quality])).toEqual(expectedOf(tag).map(p => [p.timeMs, p.value, 0]))
+    }
+    const [c] = await sql`select state, owner, accepted_count, last_value_at from opcua_connections where id = ${connectionId}`
+    expect(c!.state).toBe('connected')
+    expect(c!.owner).toBeTruthy()
+    expect(Number(c!.accepted_count)).toBe(published.length)
+    expect((c!.last_value_at as Date).getTime()).toBe(Math.max(...published.map(p => p.timeMs)))
+    const bases = await sql`select distinct time_basis from opcua_mappings where connection_id = ${connectionId}`
+    expect(await eventually('time basis recorded', async () => (bases.length ? bases.map(b => b.time_basis) : undefined))).toEqual(['source'])
+  })
+
+  it('stores Bad and Uncertain values flagged with their quality', async () => {
+    publish('OP-101', 'bad')
+    publish('OP-101', 'uncertain')
+    publish('OP-101', 'good')
+    const rows = await storedAll('OP-101', expectedOf('OP-101').length)
+    expect(rows.map(r => r.quality)).toEqual(expectedOf('OP-101').map(p => QUALITY[p.quality]))
+    expect(rows.slice(-3).map(r => r.quality)).toEqual([2, 1, 0])
+  })
+
+  it('loses no value across a server restart: the gap comes back from the server history', async () => {
+    publish('OP-102')
+    await storedAll('OP-102', expectedOf('OP-102').length)
+    await plant.stop()
+    await eventually('the collector to notice', async () => {
+      const [c] = await sql`select state from opcua_connections where id = ${connectionId}`
+      return c!.state !== 'connected' ? true : undefined
+    })
+    // Recorded by the plant while its OPC UA server was down, and just after it came back.
+    for (let k = 0; k < 10; k++) publish(TAGS[k % 2]!)
+    await plant.start()
+    for (let k = 0; k < 10; k++) publish(TAGS[k % 2]!)
+    for (const tag of TAGS) {
+      const rows = await storedAll(tag, expectedOf(tag).length)
+      expect(rows.map(r => [r.time.getTime(), r.value, r.quality])).toEqual(expectedOf(tag).map(p => [p.timeMs, p.value, QUALITY[p.quality]]))
+    }
+    const [c] = await eventually('status after the restart', async () => {
+      const rows = await sql`select state, reconnect_count, backfilled_count from opcua_connections where id = ${connectionId}`
+      return rows[0]!.state === 'connected' && Number(rows[0]!.reconnect_count) >= 1 ? rows : undefined
+    })
+    expect(Number(c!.backfilled_count)).toBeGreaterThan(0)
+  })
+
+  it('never sent a request that could change the plant', () => {
+    // The counter sees the collector's traffic (so it can fail), and no Write, Call, HistoryUpdate or node management.
+    expect(plant.requests.get('CreateMonitoredItemsRequest')).toBeGreaterThan(0)
+    expect(plant.requests.get('HistoryReadRequest')).toBeGreaterThan(0)
+    expect(plant.plantChangingRequests()).toEqual({})
+  })
+})
