@@ -14,7 +14,48 @@ export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
   devtools: { enabled: false },
   telemetry: false,
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@vueuse/nuxt', '@nuxt/eslint'],
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@vueuse/nuxt', '@nuxt/eslint', 'nuxt-security'],
+  // Response headers and the content security policy (issue 13 item 4). Only nuxt-security's
+  // headers are used: request checks live in server/middleware (same-origin writes, methods, body
+  // limits) and sign-in limits in server/services/accounts, because its own limiters read whole
+  // bodies by their declared length and count in one process's memory.
+  security: {
+    headers: {
+      contentSecurityPolicy: {
+        'default-src': ["'self'"],
+        'base-uri': ["'none'"],
+        'connect-src': ["'self'"],
+        // @fontsource files are bundled as assets; Vite may inline small ones as data: URLs.
+        'font-src': ["'self'", 'data:'],
+        'form-action': ["'self'"],
+        'frame-ancestors': ["'none'"],
+        'frame-src': ["'none'"],
+        'img-src': ["'self'", 'data:'],
+        'object-src': ["'none'"],
+        // Nuxt's inline payload and entry scripts carry the per-response nonce; what they load is trusted by it.
+        'script-src': ["'self'", "'strict-dynamic'", "'nonce-{{nonce}}'"],
+        'script-src-attr': ["'none'"],
+        // Vue renders :style bindings as style attributes in the server's HTML.
+        'style-src': ["'self'", "'unsafe-inline'"],
+        'worker-src': ["'self'"],
+        // Served over plain HTTP on a console network or behind a TLS proxy: never rewrite to https here.
+        'upgrade-insecure-requests': false,
+      },
+      xFrameOptions: 'DENY',
+      // no-referrer would make browsers send 'Origin: null' on our own writes (Fetch standard),
+      // which the same-origin check refuses; same-origin keeps the Referer inside the app.
+      referrerPolicy: 'same-origin',
+      // includeSubDomains would bind every host of the plant's domain to HTTPS; that is the site's call.
+      strictTransportSecurity: { maxAge: 31536000, includeSubdomains: false },
+    },
+    rateLimiter: false,
+    requestSizeLimiter: false,
+    xssValidator: false,
+    corsHandler: false,
+    allowedMethodsRestricter: false,
+    // Keep console output: the server logs its own failures there.
+    removeLoggers: false,
+  },
   css: ['@fontsource/roboto-mono/400.css', '@fontsource/roboto-mono/700.css', '~/assets/css/main.css'],
   app: {
     head: {
@@ -40,6 +81,8 @@ export default defineNuxtConfig({
     // How far ahead of this server's clock a sample may be stamped (NUXT_INGEST_MAX_FUTURE_SKEW_S).
     ingest: { maxFutureSkewS: 300 },
   },
+  // API answers are the user's plant data: never kept by a browser or proxy cache.
+  routeRules: { '/api/**': { headers: { 'cache-control': 'no-store' } } },
   nitro: {
     preset: 'node-server',
     experimental: { tasks: true },
@@ -58,6 +101,12 @@ export default defineNuxtConfig({
     },
   },
   hooks: {
+    // The API's route files and methods, for server/middleware/allowedMethods.ts (405 with Allow).
+    'nitro:init'(nitro) {
+      nitro.options.virtual['#brinkline/api-routes'] = () => `export default ${JSON.stringify(
+        nitro.scannedHandlers.filter(h => h.route?.startsWith('/api/')).map(h => ({ route: h.route, method: h.method })),
+      )}`
+    },
     // Our handler answers database outages with 503 first; Nuxt's own handler renders the rest.
     'nitro:config'(config) {
       const existing = config.errorHandler ? [config.errorHandler].flat() : []

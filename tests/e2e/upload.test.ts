@@ -118,7 +118,8 @@ describe('POST /api/uploads/import', () => {
       expect(res.status).toBe(403)
       expect(res.body.message).toContain('engineer')
     }
-    expect((await call('/api/uploads/preview?siteId=1', { method: 'POST', body: csv, cookie: await signInAs('operator') })).status).toBe(403)
+    const asOperator = { method: 'POST', body: csv, headers: { 'content-type': 'text/csv' }, cookie: await signInAs('operator') }
+    expect((await call('/api/uploads/preview?siteId=1', asOperator)).status).toBe(403)
   })
 
   it('a file that breaks mid-way: committed batches stay, the error says how far it got, a re-run is safe', async () => {
@@ -165,7 +166,9 @@ describe('POST /api/uploads/import', () => {
 describe('POST /api/uploads/preview', () => {
   it('detects the delimiter, shows the first 20 rows and guesses a wide layout from tag-code headers', async () => {
     const lines = ['time\tTI-101\tAI-102', ...Array.from({ length: 30 }, (_, k) => `2025-02-01 00:00:${String(k).padStart(2, '0')}\t${400 + k}\t0.5`)]
-    const res = await call(`/api/uploads/preview?siteId=${siteId}`, { method: 'POST', body: `${lines.join('\n')}\n2025-02-01 00:00:3`, cookie: engineer })
+    const res = await call(`/api/uploads/preview?siteId=${siteId}`, {
+      method: 'POST', body: `${lines.join('\n')}\n2025-02-01 00:00:3`, headers: { 'content-type': 'text/csv' }, cookie: engineer,
+    })
     expect(res.status).toBe(200)
     expect(res.body).toMatchObject({
       delimiter: '\t', header: ['time', 'TI-101', 'AI-102'], timeZone: 'Europe/London',
