@@ -15,6 +15,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/upload', label: 'Upload history', capability: 'configure' },
   { to: '/admin/users', label: 'Users', capability: 'administer' },
   { to: '/admin/gateways', label: 'Gateways', capability: 'administer' },
+  { to: '/admin/opcua', label: 'OPC UA', capability: 'administer' },
   { to: '/admin/routes', label: 'Notification routes', capability: 'administer' },
   { to: '/admin/audit', label: 'Audit log', capability: 'administer' },
 ]

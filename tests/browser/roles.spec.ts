@@ -12,7 +12,7 @@ const EXPECTED_NAV: Record<Role, string[]> = {
   operator: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health'],
   engineer: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health', 'Workbench', 'Upload history'],
   supervisor: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health'],
-  admin: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health', 'Users', 'Gateways', 'Notification routes', 'Audit log'],
+  admin: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health', 'Users', 'Gateways', 'OPC UA', 'Notification routes', 'Audit log'],
 }
 
 let context: BrowserContext
