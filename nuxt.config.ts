@@ -79,7 +79,11 @@ export default defineNuxtConfig({
     // Inactivity limit beside the 12 h absolute one (NIST SP 800-63B AAL2: 30 minutes).
     sessionIdleMinutes: 30,
     // How far ahead of this server's clock a sample may be stamped (NUXT_INGEST_MAX_FUTURE_SKEW_S).
-    ingest: { maxFutureSkewS: 300 },
+    // Requests per gateway key and minute (NUXT_INGEST_REQUESTS_PER_MINUTE): a gateway sends a batch
+    // every few seconds and a backlog in batches of up to 10,000 samples, so 1,200 leaves it room.
+    ingest: { maxFutureSkewS: 300, requestsPerMinute: 1200 },
+    // Sign-in limits (server/services/accounts/signInLimits.ts; NUXT_SIGN_IN_WINDOW_S …).
+    signIn: { windowS: 900, perAccountAtAddress: 5, perAccount: 50, perAccountWindowS: 3600, perAddress: 100 },
   },
   // API answers are the user's plant data: never kept by a browser or proxy cache.
   routeRules: { '/api/**': { headers: { 'cache-control': 'no-store' } } },

@@ -3,6 +3,7 @@ import { ingestBatch } from '../services/ingest/ingestBatch'
 
 export default defineEventHandler(async (event) => {
   const gateway = await requireGateway(event)
+  await requireIngestBudget(event, gateway.id)
   const db = useDb()
   try {
     const declared = Number(getRequestHeader(event, 'content-length') ?? 0)

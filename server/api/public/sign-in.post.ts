@@ -5,18 +5,23 @@ export default defineEventHandler(async (event) => {
   const { email, password } = await validBody(event, signInSchema)
   const db = useDb()
   const address = clientAddress(event)
-  if (await signInBlocked(db, email, address)) {
-    setResponseHeader(event, 'Retry-After', SIGN_IN_LIMITS.windowMinutes * 60)
-    throw createError({ statusCode: 429, message: `Too many failed sign-ins; try again in ${SIGN_IN_LIMITS.windowMinutes} minutes` })
+  const reservation = await useSignInLimiter().reserve(email, address)
+  if (!reservation.allowed) {
+    setResponseHeader(event, 'Retry-After', reservation.retryAfterS)
+    await writeAudit(db, { userId: null, action: 'sign-in.limited', target: email, address, detail: { limit: reservation.limit } })
+    throw createError({ statusCode: 429, message: `Too many ${reservation.limit}; try again in ${reservation.retryAfterS} s` })
   }
   const user = await findActiveUserByEmail(db, email)
-  if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, normalisePassword(password)))) {
-    await recordSignInFailure(db, email, address)
+  // Always one scrypt check, against a dummy hash for an unknown account: equal work, equal time.
+  const passwordOk = await verifyPassword(user?.passwordHash ?? await hashForUnknownAccount(), normalisePassword(password))
+  if (!user?.passwordHash || !passwordOk) {
+    await reservation.settle(false)
     await writeAudit(db, { userId: user?.id ?? null, action: 'sign-in.failed', target: email, address })
     // Same answer for unknown account and wrong password: don't reveal which accounts exist.
     throw createError({ statusCode: 401, message: 'E-mail or password is wrong' })
   }
-  await markSignedIn(db, user.id, email)
+  await reservation.settle(true)
+  await markSignedIn(db, user.id)
   await writeAudit(db, { userId: user.id, action: 'sign-in', target: email, address })
   const sessionUser = { id: user.id, email: user.email, name: user.name, role: user.role }
   const now = Date.now()

@@ -18,15 +18,6 @@ export const users = pgTable('users', {
   lastSignInAt: timestamp('last_sign_in_at', { withTimezone: true }),
 })
 
-// Failed sign-ins, kept in the database (not in memory) so the limit holds across several
-// server instances and restarts.
-export const signInFailures = pgTable('sign_in_failures', {
-  id: serial('id').primaryKey(),
-  email: text('email').notNull(),
-  address: text('address').notNull(),
-  at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
-}, t => [index('sign_in_failures_email_at').on(t.email, t.at), index('sign_in_failures_address_at').on(t.address, t.at)])
-
 // Sessions are sealed cookies: signing out clears the browser's copy, and this list makes any
 // other copy of that cookie useless too. Rows older than the session lifetime can go.
 export const revokedSessions = pgTable('revoked_sessions', {
