@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { auditCsv, csvField } from '../../../../shared/utils/auditCsv'
+import { auditCsv } from '../../../../shared/utils/auditCsv'
+import { csvField } from '../../../../shared/utils/csvField'
 import { auditChanges } from '../../../../shared/utils/auditChanges'
 
 describe('audit CSV (RFC 4180)', () => {
