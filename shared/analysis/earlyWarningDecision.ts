@@ -37,9 +37,12 @@ export function varianceChange(values: ArrayLike<number>, phi: number): Variance
   return { logRatio, p: normalUpperTail(logRatio / sd) }
 }
 
-/** What one evaluation's tests say. */
-export function judgeEvidence(stability: StabilityTrendTest, variance: VarianceChange, alpha: number): TrendEvidence {
-  if (stability.p <= alpha && stability.fit.slope > 0 && variance.logRatio > 0) return 'slowing down'
+/**
+ * What one evaluation's tests say. `confirmed` false: a slowing-down look still awaits its
+ * confirmation (evaluateRecord.ts confirmedEvidence), and the verdict is what the rest says.
+ */
+export function judgeEvidence(stability: StabilityTrendTest, variance: VarianceChange, alpha: number, confirmed = true): TrendEvidence {
+  if (confirmed && stability.p <= alpha && stability.fit.slope > 0 && variance.logRatio > 0) return 'slowing down'
   if (variance.p <= alpha) return 'noise level changed'
   return 'no trend'
 }

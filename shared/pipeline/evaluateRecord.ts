@@ -150,6 +150,7 @@ interface Look {
   residuals: Float64Array
   stability: StabilityTrendTest
   variance: VarianceChange
+  alpha: number
   evidence: TrendEvidence
 }
 
@@ -161,7 +162,7 @@ function judgeLook(input: RecordInput, trendStart: number, end: number, time: St
     const stability = stabilityTrendTest(residuals, settings.surrogates, createRng(seedFor(input.tagId, times[end]!)))
     const variance = varianceChange(residuals, stability.fit.phiMiddle)
     const alpha = lookAlpha(input, end + 1 - trendStart)
-    return { residuals, stability, variance, evidence: judgeEvidence(stability, variance, alpha) }
+    return { residuals, stability, variance, alpha, evidence: judgeEvidence(stability, variance, alpha) }
   })
 }
 
@@ -182,8 +183,7 @@ function confirmedEvidence(input: RecordInput, look: Look, trendStart: number, e
   const previousStart = Math.max(previousEnd + 1 - settings.trendWindowSamples, usable)
   const confirmed = previousEnd + 1 - previousStart >= settings.minTrendSamples
     && judgeLook(input, previousStart, previousEnd, time).evidence === 'slowing down'
-  if (confirmed) return look.evidence
-  return look.variance.p <= lookAlpha(input, end + 1 - trendStart) ? 'noise level changed' : 'no trend'
+  return confirmed ? look.evidence : judgeEvidence(look.stability, look.variance, look.alpha, false)
 }
 
 /**
