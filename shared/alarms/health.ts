@@ -1,6 +1,6 @@
 // Alarm-system health over a period, computed from alarm occurrences and their event trails, with
 // the figures and targets of ISA-18.2 (and its TR18.2.5 monitoring report), IEC 62682 and EEMUA 191
-// as docs/science.md §S7.4 and §S7.5 give them. One site counts as one operator position. Alarms
+// as docs/science.md §S7.4 gives them. One site counts as one operator position. Alarms
 // and advisory alerts are counted apart (ISA-18.2-2016 alerts), so early warnings never enter the
 // alarm-rate figures. Pure: the server loads the events, this counts them.
 import type { AlarmClass, AlarmState, Priority } from './vocabulary'
@@ -21,8 +21,17 @@ export const CHATTER_SPAN_MS = 60_000
  * (Kondaveeti et al. 2013, run-length distributions) [from memory].
  */
 export const CHATTER_INDEX_LIMIT = 0.05
-/** The usual target share of annunciated alarms per priority (ISA-18.2, EEMUA 191). */
-export const PRIORITY_TARGETS: Record<Priority, number> = { urgent: 0.01, high: 0.05, medium: 0.15, low: 0.80 }
+/**
+ * The usual target share of annunciated alarms per priority (ISA-18.2, EEMUA 191: about 5 % high,
+ * 15 % medium, 80 % low, the top level reserved and rare [from memory]). The top level gets 1 %
+ * and low the rest, so the targets add up to the whole.
+ */
+const URGENT_TARGET = 0.01
+const HIGH_TARGET = 0.05
+const MEDIUM_TARGET = 0.15
+export const PRIORITY_TARGETS: Record<Priority, number> = {
+  urgent: URGENT_TARGET, high: HIGH_TARGET, medium: MEDIUM_TARGET, low: 1 - URGENT_TARGET - HIGH_TARGET - MEDIUM_TARGET,
+}
 
 export interface HealthEvent {
   /** Process time of the transition where known, else when it was recorded (ms). */

@@ -135,8 +135,13 @@ describe('priority distribution against ~80 % low, 15 % medium, 5 % high (ISA-18
       { priority: 'urgent', count: 0, share: 0, target: 0.01 },
       { priority: 'high', count: 1, share: 0.1, target: 0.05 },
       { priority: 'medium', count: 1, share: 0.1, target: 0.15 },
-      { priority: 'low', count: 8, share: 0.8, target: 0.8 },
+      { priority: 'low', count: 8, share: 0.8, target: expect.closeTo(0.79, 12) },
     ])
+  })
+
+  it('the targets add up to the whole (the top level takes its 1 % from low)', () => {
+    const r = alarmSystemHealth([], HOUR_PERIOD)
+    expect(r.priorities.reduce((sum, p) => sum + p.target, 0)).toBeCloseTo(1, 12)
   })
 })
 
