@@ -1,14 +1,35 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BrowserContext } from 'playwright-core'
 import { url } from '@nuxt/test-utils/e2e'
+import { ADVISORY_CAUTION } from '../../shared/alarms/vocabulary'
+import { MANUAL_TICKS_ENV, startTestMailbox } from '../support/mailbox'
+import { freeLoopbackPort } from '../support/opcua'
+import { mailboxMessages, runServerTask } from '../support/pipeline'
 import { setupBuiltServer } from '../support/server'
+import { call } from '../support/session'
 import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
 
-await setupBuiltServer()
+// The server mails through the local mailbox, and its public URL is its own address, so the link
+// in a mail is followed as it stands.
+const { mailbox, smtpUrl } = await startTestMailbox()
+const port = await freeLoopbackPort()
+await setupBuiltServer({ ...MANUAL_TICKS_ENV, NUXT_SMTP_URL: smtpUrl, NUXT_PUBLIC_URL: `http://127.0.0.1:${port}` }, { port })
 
 let context: BrowserContext
 beforeAll(async () => { context = await launchChromium() })
-afterAll(async () => { await context?.close() })
+afterAll(async () => { await context?.close(); await mailbox.close() })
+
+/** The newest mail to `to` once the sender has run (the scheduler is off: the test runs it). */
+async function mailTo(to: string) {
+  await runServerTask('notifications:send')
+  const mail = (await mailboxMessages(mailbox.httpPort)).filter(m => m.to.includes(to)).at(-1)
+  expect(mail, `a mail to ${to} in the local mailbox`).toBeDefined()
+  return mail!
+}
+
+const ingestWith = (key: string) => call('/api/ingest', {
+  method: 'POST', headers: { authorization: `Bearer ${key}` }, json: { samples: [{ tag: 'TI-401', time: '2026-06-02T00:00:00Z', value: 45 }] },
+})
 
 describe('admin manages gateways', () => {
   it('creates a gateway, sees its key once, and the key works for ingest', async () => {
@@ -31,5 +52,94 @@ describe('admin manages gateways', () => {
     await expect.poll(() => page.getByRole('row', { name: /Boiler house edge box/ }).getByText('revoked').count()).toBe(1)
     await page.reload()
     expect(await page.getByTestId('new-gateway-key').count()).toBe(0)
+  })
+})
+
+// Issue 16: an admin's day — a new colleague, a key rotation and a new mail route, each seen
+// arriving where it should.
+describe('admin journey: a user, a key rotation and a mail route', () => {
+  it('creates a user whose set-password link arrives by mail and works once', async () => {
+    const page = await context.newPage()
+    await signInThroughForm(page, 'admin')
+    await page.goto(url('/admin/users'))
+    const email = 'ines.okafor@harrowgate.example'
+    await page.getByLabel('E-mail').fill(email)
+    await page.getByLabel('Full name').fill('Ines Okafor')
+    await page.locator('select[name="new-user-role"]').selectOption('operator')
+    await page.getByRole('button', { name: 'Create and send link' }).click()
+    await page.getByRole('status').filter({ hasText: email }).waitFor()
+    await expect.poll(() => page.getByRole('row', { name: new RegExp(email) }).getByText('invited (no password yet)').count()).toBe(1)
+    await screenshot(page, 'admin-journey-user-invited')
+
+    const mail = await mailTo(email)
+    expect(mail.subject).toBe('Brinkline: set your password')
+    expect(mail.text).toContain(ADVISORY_CAUTION)
+    const link = new RegExp(`http://127\\.0\\.0\\.1:${port}/set-password\\?token=[A-Za-z0-9_-]{43}`).exec(mail.text)?.[0]
+    expect(link, 'the set-password link in the mail').toBeDefined()
+
+    // A pass-phrase of unrelated words (NIST SP 800-63B-4 §3.1.1.2 [from memory]).
+    const password = 'lantern orchard copper violin'
+    const linkPage = await context.newPage()
+    await linkPage.goto(link!)
+    await linkPage.getByText('Ines Okafor').waitFor()
+    await screenshot(linkPage, 'admin-journey-set-password')
+    await linkPage.getByLabel('New password').fill(password)
+    await linkPage.getByLabel('Repeat the password').fill(password)
+    await linkPage.getByRole('button', { name: 'Set password' }).click()
+    await linkPage.getByTestId('password-set').waitFor()
+    const signedIn = await call('/api/public/sign-in', { method: 'POST', json: { email, password } })
+    expect(signedIn.status).toBe(200)
+    expect(signedIn.body.user.role).toBe('operator')
+
+    // Used once: the same link now refuses, in words.
+    await linkPage.goto(link!)
+    await expect.poll(() => linkPage.getByRole('alert').textContent()).toMatch(/used or has expired/)
+    expect(await linkPage.getByLabel('New password').count()).toBe(0)
+    await screenshot(linkPage, 'admin-journey-set-password-used')
+    await page.reload()
+    await expect.poll(() => page.getByRole('row', { name: new RegExp(email) }).getByText('active', { exact: true }).count()).toBe(1)
+  })
+
+  it('rotates a gateway key: the new key works and the old one stops at once', async () => {
+    const page = await context.newPage()
+    await page.goto(url('/admin/gateways'))
+    await page.getByLabel('Name').fill('Tank farm edge box')
+    await page.getByRole('button', { name: 'Create and show key' }).click()
+    const oldKey = (await page.getByTestId('new-gateway-key').locator('code').first().textContent())!.trim()
+    expect((await ingestWith(oldKey)).status).toBe(200)
+
+    const row = page.getByRole('row', { name: /Tank farm edge box/ })
+    await row.getByLabel('Old key of Tank farm edge box after rotation').selectOption({ label: 'stops at once' })
+    await row.getByRole('button', { name: 'Rotate key' }).click()
+    const panel = page.getByTestId('rotated-gateway-key')
+    await panel.getByText('The old key has stopped working.').waitFor()
+    const newKey = (await panel.locator('code').textContent())!.trim()
+    expect(newKey).toMatch(/^bk_/)
+    expect(newKey).not.toBe(oldKey)
+    await screenshot(page, 'admin-journey-key-rotated')
+    expect((await ingestWith(newKey)).status).toBe(200)
+    expect((await ingestWith(oldKey)).status).toBe(401)
+  })
+
+  it('adds a mail route whose test e-mail arrives and shows as sent in its delivery log', async () => {
+    const page = await context.newPage()
+    await page.goto(url('/admin/routes'))
+    const to = 'night.lead@harrowgate.example'
+    await page.getByLabel('Name', { exact: true }).fill('Night shift lead')
+    await page.getByLabel('Recipient e-mail').fill(to)
+    await page.getByRole('button', { name: 'Add route' }).click()
+    const row = page.getByRole('row', { name: /Night shift lead/ }).first()
+    await row.waitFor()
+    await row.getByRole('button', { name: 'Send test e-mail' }).click()
+    await page.getByRole('status').filter({ hasText: 'Test message queued' }).waitFor()
+
+    const mail = await mailTo(to)
+    expect(mail.subject).toBe('Brinkline: test message for route "Night shift lead"')
+    expect(mail.text).toContain(ADVISORY_CAUTION)
+    await page.getByRole('button', { name: 'Refresh' }).click()
+    const log = page.getByTestId('route-deliveries')
+    await expect.poll(() => log.getByRole('cell', { name: 'sent', exact: true }).count()).toBe(1)
+    expect(await log.getByRole('cell', { name: to }).count()).toBe(1)
+    await screenshot(page, 'admin-journey-route-test-sent')
   })
 })
