@@ -20,13 +20,3 @@ export default defineEventHandler((event) => {
   setResponseHeader(event, 'Allow', allow)
   throw createError({ statusCode: 405, message: `method: ${event.method} is not allowed on ${path}; use ${allow}` })
 })
-
-/** '/api/tags/:id/series' → /^\/api\/tags\/[^/]+\/series\/?$/ ; '/api/x/**' matches the rest of the path. */
-function routePattern(route: string): RegExp {
-  const body = route.split('/').map((segment) => {
-    if (segment.startsWith('**')) return '.*'
-    if (segment.startsWith(':')) return '[^/]+'
-    return segment.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')
-  }).join('/')
-  return new RegExp(`^${body}/?$`)
-}

@@ -26,6 +26,12 @@ export const idParamsSchema = z.object({ id: dbId() })
 // eslint-disable-next-line no-control-regex -- matching the NUL character is the point of this check
 export const NO_NUL = /^[^\u0000]*$/
 export const NUL_MESSAGE = 'must not contain a NUL character (U+0000)'
+/**
+ * Most bytes one character of text can take in a JSON body: a control character is written as a
+ * six-byte \u escape (RFC 8259 §7); any other UTF-16 unit takes at most 3 bytes of UTF-8. Body
+ * limits for routes with long text fields are sized from it (server/utils/bodyLimits.ts).
+ */
+export const JSON_MAX_BYTES_PER_CHAR = 6
 export const textField = (messages: { required?: string, type?: string } = {}) =>
   z.string({ required_error: messages.required ?? 'is required', invalid_type_error: messages.type ?? 'must be text' })
     .regex(NO_NUL, NUL_MESSAGE)

@@ -1,9 +1,15 @@
 import { z } from 'zod'
 import { ALERT_OUTCOMES, INCIDENT_STATES, MAX_INCIDENT_WINDOW_S } from '../alarms/reviewVocabulary'
-import { dbId, textField } from './fields'
+import { dbId, JSON_MAX_BYTES_PER_CHAR, textField } from './fields'
 
-const findingText = textField().trim().max(8000, 'must have at most 8000 characters')
-const title = textField().trim().min(3, 'must have at least 3 characters').max(200, 'must have at most 200 characters')
+const FINDING_MAX_CHARS = 8000
+const TITLE_MAX_CHARS = 200
+const FINDING_FIELDS = 4
+/** Body of a findings change at its largest (every field full, every character escaped), plus room for the keys. */
+export const INCIDENT_FINDINGS_MAX_BYTES = (FINDING_FIELDS * FINDING_MAX_CHARS + TITLE_MAX_CHARS) * JSON_MAX_BYTES_PER_CHAR + 1024
+
+const findingText = textField().trim().max(FINDING_MAX_CHARS, `must have at most ${FINDING_MAX_CHARS} characters`)
+const title = textField().trim().min(3, 'must have at least 3 characters').max(TITLE_MAX_CHARS, `must have at most ${TITLE_MAX_CHARS} characters`)
 const alarmIds = z.array(dbId('alarm'), { required_error: 'is required (a list of alarm ids)', invalid_type_error: 'must be a list of alarm ids' })
   .min(1, 'must name at least one alarm').max(500, 'must name at most 500 alarms')
   .refine(ids => new Set(ids).size === ids.length, 'must not repeat an alarm')

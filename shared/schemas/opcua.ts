@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { dbId, displayNameField, textField } from './fields'
+import { dbId, displayNameField, JSON_MAX_BYTES_PER_CHAR, textField } from './fields'
 
 // What an admin may set on an OPC UA connection (issue 17 item 1). The collector reads these
 // (server/services/opcua/collector.ts); the status columns are its own and never set here.
@@ -53,14 +53,19 @@ export const opcuaConnectionCreateSchema = z.object({
 export const opcuaConnectionUpdateSchema = z.object({ ...connectionFields, password: password.optional() })
   .partial().strict().refine(policyFitsMode, POLICY_MESSAGE)
 
+const MAX_MAPPINGS = 2000
+const NODE_ID_MAX_CHARS = 500
+/** Body of a node-to-tag table at its largest: every node id full and escaped, plus its keys and a tag id (under 64 bytes). */
+export const OPCUA_MAPPINGS_MAX_BYTES = MAX_MAPPINGS * (NODE_ID_MAX_CHARS * JSON_MAX_BYTES_PER_CHAR + 64) + 1024
+
 /** The whole node-to-tag table of one connection, replaced at once. */
 export const opcuaMappingsSchema = z.object({
   mappings: z.array(z.object({
-    nodeId: textField().trim().min(1, 'is required').max(500, 'must have at most 500 characters')
+    nodeId: textField().trim().min(1, 'is required').max(NODE_ID_MAX_CHARS, `must have at most ${NODE_ID_MAX_CHARS} characters`)
       // The text forms of IEC 62541-6 §5.3.1.10: ns=<n>;i=|s=|g=|b=<id>, or a bare i=/s=… in namespace 0.
       .regex(/^(?:ns=\d+;|nsu=[^;]+;)?[isgb]=.+$/, 'must be an OPC UA node id such as ns=2;s=Boiler.TI-401'),
     tagId: dbId('tag'),
-  }).strict(), { invalid_type_error: 'must be a list' }).max(2000, 'must have at most 2000 entries')
+  }).strict(), { invalid_type_error: 'must be a list' }).max(MAX_MAPPINGS, `must have at most ${MAX_MAPPINGS} entries`)
     .superRefine((list, ctx) => {
       // One variable feeds one tag and a tag has one source (the table's unique keys): say which row repeats.
       for (const key of ['nodeId', 'tagId'] as const) {

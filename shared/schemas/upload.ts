@@ -6,6 +6,12 @@ import { isTimeZone } from '../utils/zonedTime'
 /** Preview body: the start of the file, cut by the browser (File.slice). */
 export const PREVIEW_MAX_BYTES = 256 * 1024
 export const PREVIEW_ROWS = 20
+/**
+ * Largest file one import request may carry. The import streams, so this bounds one request's
+ * work, not memory: about 25 million long-form lines of ~40 bytes. Longer histories go in several
+ * files; importing again is safe (stored samples count as duplicates).
+ */
+export const MAX_UPLOAD_BYTES = 1024 * 1024 * 1024
 /** Samples validated and written together; each batch is its own transaction. */
 export const UPLOAD_BATCH_SAMPLES = 5_000
 /** Rejections listed one by one; the count goes on past this. */

@@ -11,12 +11,13 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   const site = await findSite(db, query.siteId)
   if (!site) throw createError({ statusCode: 400, message: `siteId: no site with id ${query.siteId}` })
-  const source = openCsvSource(event.node.req, query.delimiter)
+  const source = openCsvSource(limitedBodyStream(event), query.delimiter)
   const refuse = (message: string, statusCode = 400): never => {
     source.discard()
     throw createError({ statusCode, message })
   }
-  const first = await source.next().catch((err: Error) => refuse(`body: the header line can't be read: ${err.message}`))
+  const first = await source.next().catch((err: Error & { statusCode?: number }) =>
+    err.statusCode === 413 ? refuse(err.message, 413) : refuse(`body: the header line can't be read: ${err.message}`))
   const header = first?.record.map(h => h.trim()) ?? refuse('body: the file is empty (no header line)')
   const encoding = csvEncodingProblem(header.join(','))
   if (encoding) refuse(`body: ${encoding}`, 415)

@@ -1,20 +1,17 @@
 import { parse } from 'csv-parse/sync'
-import { PREVIEW_MAX_BYTES, PREVIEW_ROWS, uploadPreviewQuerySchema } from '#shared/schemas/upload'
+import { PREVIEW_ROWS, uploadPreviewQuerySchema } from '#shared/schemas/upload'
 import { csvEncodingProblem, detectDelimiter, guessColumns } from '#shared/utils/csvLayout'
 import type { UploadPreview } from '#shared/types/upload'
 
-// Body: the first bytes of the file as text (the browser cuts it with File.slice).
+// Body: the first bytes of the file as text (the browser cuts it with File.slice), at most
+// PREVIEW_MAX_BYTES: the read stops there with a 413 (middleware/bodyLimits.ts).
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'engineer')
   const query = await validQuery(event, uploadPreviewQuerySchema)
   const db = useDb()
   const site = await findSite(db, query.siteId)
   if (!site) throw createError({ statusCode: 400, message: `siteId: no site with id ${query.siteId}` })
-  const tooLarge = () => createError({ statusCode: 413, message: `body: send at most the first ${PREVIEW_MAX_BYTES} bytes of the file for a preview` })
-  // Refuse a whole file by its declared length before reading it into memory.
-  if (Number(getRequestHeader(event, 'content-length') ?? 0) > PREVIEW_MAX_BYTES) throw tooLarge()
   const bytes = (await readRawBody(event, false)) ?? Buffer.alloc(0)
-  if (bytes.length > PREVIEW_MAX_BYTES) throw tooLarge()
   const text = csvTextOf(bytes)
   const encoding = csvEncodingProblem(text)
   if (encoding) throw createError({ statusCode: 415, message: `body: ${encoding}` })

@@ -42,7 +42,8 @@ export function openCsvSource(body: Readable, delimiter = ',') {
   })
   // pipe(), not pipeline(): on an early answer the body must be drained, not the socket destroyed.
   const fail = (err: Error) => parser.destroy(err)
-  body.on('error', fail).on('aborted', () => fail(new Error('the upload was interrupted')))
+  // An interrupted upload arrives as an error too (server/utils/limitedBody.ts).
+  body.on('error', fail)
   body.pipe(parser)
   const records = parser[Symbol.asyncIterator]() as AsyncIterator<CsvRecord>
   return {
