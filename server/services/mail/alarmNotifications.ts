@@ -6,6 +6,7 @@ import type { AlarmRow } from '../../db/schema'
 import type { DbExecutor, DbTransaction } from '../../utils/db'
 import { alarmRecipients, type Recipients } from '../notifications/alarmRecipients'
 import { loadAlarmMailFacts } from './alarmMailFacts'
+import { joinOpenCollection } from './openCollection'
 
 /** Every address routed to this alarm now, whatever the delivery preference (history summaries). */
 export async function recipientsFor(db: DbExecutor, alarm: AlarmRow): Promise<string[]> {
@@ -39,27 +40,16 @@ export async function enqueueAlarmMail(tx: DbTransaction, alarm: AlarmRow, publi
   const toDigest: Recipients = flood
     ? { emails: [...new Set([...immediate.emails, ...digest.emails])].sort(), routeIds: [...immediate.routeIds, ...digest.routeIds] }
     : digest
-  if (toDigest.emails.length > 0) await addToDigest(tx, alarm, toDigest)
+  if (toDigest.emails.length > 0) {
+    await joinOpenCollection(tx, alarm, {
+      kind: 'digest', emails: toDigest.emails, routeIds: toDigest.routeIds, collectSeconds: DIGEST_COLLECT_SECONDS, keepCollecting: false,
+    })
+  }
   if (flood || immediate.emails.length === 0) return
   const [facts] = await loadAlarmMailFacts(tx, [alarm.id], publicUrl)
   const mail = renderAlarmMail(facts!)
   await tx.insert(notificationOutbox).values({
     kind: 'alarm', siteId: alarm.siteId, alarmId: alarm.id, recipients: immediate.emails, routeIds: immediate.routeIds,
     subject: mail.subject, body: mail.text,
-  })
-}
-
-async function addToDigest(tx: DbTransaction, alarm: AlarmRow, to: Recipients): Promise<void> {
-  await tx.insert(notificationOutbox).values({
-    kind: 'digest', siteId: alarm.siteId, alarmIds: [alarm.id], recipients: to.emails, routeIds: to.routeIds,
-    nextAttemptAt: sql`now() + make_interval(secs => ${DIGEST_COLLECT_SECONDS})`,
-  }).onConflictDoUpdate({
-    target: notificationOutbox.siteId,
-    targetWhere: sql`${notificationOutbox.kind} = 'digest' and ${notificationOutbox.status} = 'pending'`,
-    set: {
-      alarmIds: sql`array_append(${notificationOutbox.alarmIds}, ${alarm.id}::bigint)`,
-      recipients: sql`array(select distinct unnest(${notificationOutbox.recipients} || excluded.recipients) order by 1)`,
-      routeIds: sql`array(select distinct unnest(${notificationOutbox.routeIds} || excluded.route_ids) order by 1)`,
-    },
   })
 }
