@@ -50,7 +50,18 @@ export interface MatrixEntry {
   endsSession?: true
 }
 
+/**
+ * Routes the server has without a file under server/api: nuxt-auth-utils 0.5.30 registers these
+ * (its dist/module.mjs, addServerHandler). They answer anyone by design: GET tells the page who is
+ * signed in (server/plugins/2.sessionFollowsAccount.ts ends a session the account no longer
+ * allows), DELETE drops the browser's cookie; signing out for good is POST /api/session/sign-out.
+ */
+export const MODULE_ROUTES = ['GET /api/_auth/session', 'DELETE /api/_auth/session']
+
 export const ROLE_MATRIX: Record<string, MatrixEntry> = {
+  'GET /api/_auth/session': { expect: PUBLIC },
+  'DELETE /api/_auth/session': { expect: PUBLIC },
+
   'GET /api/admin/audit/export': { expect: ADMIN },
   'GET /api/admin/audit': { expect: ADMIN },
   'POST /api/admin/gateways/:id/revoke': { expect: ADMIN, id: 'gatewayToRevoke' },

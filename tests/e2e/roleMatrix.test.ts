@@ -7,7 +7,7 @@ import { activation, insertOccurrence, insertRule, oneShot } from '../support/re
 import { ROOT, setupBuiltServer } from '../support/server'
 import { call, signInAs } from '../support/session'
 import type { Role } from '../../shared/utils/roles'
-import { CALLERS, ROLE_MATRIX, type Caller, type Fixture, type MatrixEntry } from './roleMatrix.table'
+import { CALLERS, MODULE_ROUTES, ROLE_MATRIX, type Caller, type Fixture, type MatrixEntry } from './roleMatrix.table'
 
 // The role matrix (issue 16 item 5): every route file under server/api, called by every kind of
 // caller against the built server, must answer as docs/design.md §D2.1/§D6 say (the table in
@@ -37,7 +37,7 @@ function routeFiles(dir: string): string[] {
     entry.isDirectory() ? routeFiles(join(dir, entry.name)) : entry.name.endsWith('.ts') ? [join(dir, entry.name)] : [])
 }
 
-const discovered = routeFiles(API_DIR).map(routeOfFile).sort()
+const discovered = [...routeFiles(API_DIR).map(routeOfFile), ...MODULE_ROUTES].sort()
 const ROLES: Role[] = ['operator', 'engineer', 'supervisor', 'admin']
 const cookies = new Map<Role, string>()
 const ids = {} as Record<Fixture, number>
@@ -130,7 +130,7 @@ const checks = (want: (outcome: string) => boolean): Check[] =>
     .map(caller => ({ route, entry: ROLE_MATRIX[route]!, caller })))
 
 describe('role matrix: every route × every caller', () => {
-  it('has one row for every route file under server/api, and no row without one', () => {
+  it('has one row for every route file under server/api (and each module route), and no row without one', () => {
     expect(discovered.length).toBeGreaterThan(0)
     const rows = Object.keys(ROLE_MATRIX).sort()
     expect(discovered.filter(r => !ROLE_MATRIX[r]), 'routes with no row in roleMatrix.table.ts').toEqual([])
