@@ -62,9 +62,9 @@ describe('admin journey: a user, a key rotation and a mail route', () => {
     const page = await context.newPage()
     await signInThroughForm(page, 'admin')
     await page.goto(url('/admin/users'))
-    const email = 'ines.okafor@harrowgate.example'
+    const email = 'ines.halloran@harrowgate.example'
     await page.getByLabel('E-mail').fill(email)
-    await page.getByLabel('Full name').fill('Ines Okafor')
+    await page.getByLabel('Full name').fill('Ines Halloran')
     await page.locator('select[name="new-user-role"]').selectOption('operator')
     await page.getByRole('button', { name: 'Create and send link' }).click()
     await page.getByRole('status').filter({ hasText: email }).waitFor()
@@ -81,7 +81,7 @@ describe('admin journey: a user, a key rotation and a mail route', () => {
     const password = 'lantern orchard copper violin'
     const linkPage = await context.newPage()
     await linkPage.goto(link!)
-    await linkPage.getByText('Ines Okafor').waitFor()
+    await linkPage.getByText('Ines Halloran').waitFor()
     await screenshot(linkPage, 'admin-journey-set-password')
     await linkPage.getByLabel('New password').fill(password)
     await linkPage.getByLabel('Repeat the password').fill(password)
@@ -116,6 +116,11 @@ describe('admin journey: a user, a key rotation and a mail route', () => {
     const newKey = (await panel.locator('code').textContent())!.trim()
     expect(newKey).toMatch(/^bk_/)
     expect(newKey).not.toBe(oldKey)
+    // Only the new key stays on screen: the creation panel's key has just stopped.
+    expect(await page.getByTestId('new-gateway-key').count()).toBe(0)
+    // The list shows the new key by its prefix (docs/design.md §D2.2: 8 characters kept), and the sample sent with the old one.
+    await expect.poll(() => row.getByText(newKey.slice(0, 8)).count()).toBe(1)
+    await expect.poll(() => row.getByRole('cell', { name: '1', exact: true }).count()).toBeGreaterThan(0)
     await screenshot(page, 'admin-journey-key-rotated')
     expect((await ingestWith(newKey)).status).toBe(200)
     expect((await ingestWith(oldKey)).status).toBe(401)
