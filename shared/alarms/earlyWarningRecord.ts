@@ -31,6 +31,19 @@ export function median(values: number[]): number | null {
   return s.length % 2 ? s[mid]! : (s[mid - 1]! + s[mid]!) / 2
 }
 
+type Timed = Pick<IncidentMember, 'measure' | 'alarmClass'> & { raisedAt: number | string | Date }
+const at = (m: Timed) => new Date(m.raisedAt).getTime()
+
+/**
+ * The incident's slowing-down alerts that no limit alarm followed: the only ones a supervisor may
+ * mark false or averted. An alert a limit alarm came after is the early warning that worked (its
+ * lead time is the record's measure), whatever the operators did in between.
+ */
+export function unfollowedAlertsOf<M extends Timed>(members: readonly M[]): M[] {
+  const lastLimit = Math.max(Number.NEGATIVE_INFINITY, ...members.filter(isLimitAlarm).map(at))
+  return members.filter(m => isEarlyWarning(m) && at(m) >= lastLimit)
+}
+
 export function earlyWarningRecord(incidents: RecordIncident[]): UnitEarlyWarningRecord[] {
   const units = [...new Set(incidents.map(i => i.unitId))].sort((a, b) => a - b)
   return units.map((unitId) => {
@@ -42,9 +55,7 @@ export function earlyWarningRecord(incidents: RecordIncident[]): UnitEarlyWarnin
       const summary = earlyWarningSummary(incident.members)
       if (summary.limitAlarmAt !== null) limitAlarmIncidents++
       if (summary.verdict === 'before') leads.push(summary.leadTimeS!)
-      const lastLimit = Math.max(Number.NEGATIVE_INFINITY, ...incident.members.filter(isLimitAlarm).map(m => m.raisedAt))
-      for (const m of incident.members.filter(isEarlyWarning)) {
-        if (m.raisedAt < lastLimit) continue
+      for (const m of unfollowedAlertsOf(incident.members)) {
         unfollowedAlerts.push({ alarmId: m.alarmId, incidentId: incident.incidentId, raisedAt: m.raisedAt, outcome: m.outcome })
       }
     }

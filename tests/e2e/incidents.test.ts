@@ -36,6 +36,8 @@ beforeAll(async () => {
   ids.limit = await oneShot(sql, await limit(), T0 + 20 * MIN)
   ids.later = await oneShot(sql, await limit(), T0 + 95 * MIN)
   ids.other = await oneShot(sql, await limit('D-200'), T0 + 21 * MIN)
+  // A slowing-down alert on a third unit that no limit alarm followed.
+  ids.lone = await oneShot(sql, await insertRule(sql, { unitCode: 'B-300', alarmClass: 'alert', measure: 'early_warning' }), T0 + 30 * MIN)
   await tick()
 })
 
@@ -155,10 +157,16 @@ describe('supervisors merge, split, open, review and close; everyone reads', () 
     expect(audits.find(a => a.action === 'incident.findings')!.detail.after.cause).toBe('Cooling valve sticking.')
   })
 
-  it('marks a slowing-down alert averted (audited); other alarms take no mark; bad ids name the field', async () => {
-    const marked = await call(`/api/review/alert-outcomes/${ids.warn}`, { method: 'PUT', cookie: supervisor, json: { outcome: 'averted', note: 'operators cut feed' } })
+  it('marks an unfollowed slowing-down alert averted (audited); one a limit alarm followed, and other alarms, take no mark; bad ids name the field', async () => {
+    const marked = await call(`/api/review/alert-outcomes/${ids.lone}`, { method: 'PUT', cookie: supervisor, json: { outcome: 'averted', note: 'operators cut feed' } })
     expect(marked.status).toBe(200)
-    expect((await sql`select outcome from alert_outcomes where alarm_id = ${ids.warn!}`)[0]!.outcome).toBe('averted')
+    expect((await sql`select outcome from alert_outcomes where alarm_id = ${ids.lone!}`)[0]!.outcome).toBe('averted')
+    expect((await sql`select count(*)::int as n from audit_log where action = 'alert.outcome' and target = ${`alarm ${ids.lone}`}`)[0]!.n).toBe(1)
+    // The alert before the limit alarm is the warning that worked (ISA-18.2 keeps the alarm record as it happened) [common practice].
+    const followed = await call(`/api/review/alert-outcomes/${ids.warn}`, { method: 'PUT', cookie: supervisor, json: { outcome: 'false' } })
+    expect(followed.status).toBe(409)
+    expect(followed.body.message).toContain('followed by a limit alarm')
+    expect((await sql`select count(*)::int as n from alert_outcomes where alarm_id = ${ids.warn!}`)[0]!.n).toBe(0)
     expect((await call(`/api/review/alert-outcomes/${ids.limit}`, { method: 'PUT', cookie: supervisor, json: { outcome: 'false' } })).status).toBe(400)
     expect((await call(`/api/review/alert-outcomes/${ids.warn}`, { method: 'PUT', cookie: operator, json: { outcome: 'false' } })).status).toBe(403)
     expect((await call(`/api/review/alert-outcomes/${ids.warn}`, { method: 'PUT', cookie: supervisor, json: { outcome: 'maybe' } })).body.message).toContain('outcome')

@@ -1,10 +1,12 @@
 import { eq } from 'drizzle-orm'
 import { DEFAULT_INCIDENT_WINDOW_S } from '#shared/alarms/reviewVocabulary'
 import type { AlertOutcome } from '#shared/alarms/reviewVocabulary'
-import { alarms, alertOutcomes, siteReviewSettings } from '../../db/schema'
-import type { Db } from '../../utils/db'
+import { unfollowedAlertsOf } from '#shared/alarms/earlyWarningRecord'
+import { alarms, alertOutcomes, incidentAlarms, siteReviewSettings } from '../../db/schema'
+import type { Db, DbExecutor } from '../../utils/db'
 import { writeAudit } from '../../utils/audit'
 import type { ReviewActor } from './incidentActions'
+import { incidentMembers } from './incidentReads'
 import { ReviewInputError } from './reviewErrors'
 import { reviewSite } from './reviewSite'
 
@@ -26,12 +28,24 @@ export async function saveReviewSettings(db: Db, actor: ReviewActor, input: { si
   })
 }
 
-/** Marks an early-warning alert false or averted (null clears the mark). Only slowing-down alerts take one. */
+/** An alert a limit alarm followed in its incident counts as a warning given; it takes no mark. */
+async function refuseFollowedAlert(tx: DbExecutor, alarmId: number): Promise<void> {
+  const holding = await tx.select({ incidentId: incidentAlarms.incidentId }).from(incidentAlarms).where(eq(incidentAlarms.alarmId, alarmId))
+  for (const { incidentId } of holding) {
+    const members = await incidentMembers(tx, incidentId)
+    if (!unfollowedAlertsOf(members).some(m => m.alarmId === alarmId)) {
+      throw new ReviewInputError('id', 409, `alarm ${alarmId} was followed by a limit alarm in incident ${incidentId}: it counts as a warning given, not as false or averted`)
+    }
+  }
+}
+
+/** Marks an early-warning alert false or averted (null clears the mark). Only slowing-down alerts no limit alarm followed take one. */
 export async function markAlertOutcome(db: Db, actor: ReviewActor, alarmId: number, input: { outcome: AlertOutcome | null, note: string }) {
   return db.transaction(async (tx) => {
     const [alarm] = await tx.select({ measure: alarms.measure }).from(alarms).where(eq(alarms.id, alarmId))
     if (!alarm) throw new ReviewInputError('id', 404, `alarm ${alarmId} does not exist`)
     if (alarm.measure !== 'early_warning') throw new ReviewInputError('id', 400, `alarm ${alarmId} is not a slowing-down alert`)
+    if (input.outcome !== null) await refuseFollowedAlert(tx, alarmId)
     const [before] = await tx.select().from(alertOutcomes).where(eq(alertOutcomes.alarmId, alarmId))
     if (input.outcome === null) await tx.delete(alertOutcomes).where(eq(alertOutcomes.alarmId, alarmId))
     else {
