@@ -82,8 +82,13 @@ export default defineNuxtConfig({
     // Requests per gateway key and minute (NUXT_INGEST_REQUESTS_PER_MINUTE): a gateway sends a batch
     // every few seconds and a backlog in batches of up to 10,000 samples, so 1,200 leaves it room.
     ingest: { maxFutureSkewS: 300, requestsPerMinute: 1200 },
-    // Sign-in limits (server/services/accounts/signInLimits.ts; NUXT_SIGN_IN_WINDOW_S …).
-    signIn: { windowS: 900, perAccountAtAddress: 5, perAccount: 50, perAccountWindowS: 3600, perAddress: 100 },
+    // Sign-in limits (server/services/accounts/signInLimits.ts; NUXT_SIGN_IN_WINDOW_S …). After 5
+    // failures in a row an account waits 15 minutes at that address, doubling up to a day; a run of
+    // failures is forgotten a week after it began.
+    signIn: {
+      windowS: 900, perAccountAtAddress: 5, perAccount: 50, perAccountWindowS: 3600, perAddress: 100,
+      maxWaitS: 86_400, failureMemoryS: 604_800,
+    },
   },
   // API answers are the user's plant data: never kept by a browser or proxy cache.
   routeRules: { '/api/**': { headers: { 'cache-control': 'no-store' } } },

@@ -73,6 +73,49 @@ describe('sign-in limits (issue 13 item 5)', () => {
   })
 })
 
+describe('sign-in wait that grows with consecutive failures (issue 13 item 6)', () => {
+  // OWASP Authentication Cheat Sheet, exponential back-off [common practice]; the doubling itself is
+  // checked in tests/unit/server/accounts/signInBackoff.test.ts. A wait running out is stood for by
+  // moving its end to now in the store, so nothing here waits on the clock.
+  const email = demoEmail('operator')
+  const address = '10.0.5.1'
+  const endWait = () => sql`update rate_limits set expire = now() where key = ${`sign-in:wait@address:${email}|${address}`}`
+  const retryAfter = (answer: { headers: Headers }) => Number(answer.headers.get('retry-after'))
+
+  it('doubles the wait with each failure past the free ones, one attempt at a time, until a success ends the run', async () => {
+    for (let i = 0; i < 5; i++) expect((await signIn(email, `typo-${i}`, address)).status).toBe(401)
+    const waits: number[] = []
+    for (let round = 0; round < 3; round++) {
+      const refused = await signIn(email, DEMO_PASSWORD, address)
+      expect(refused.status).toBe(429)
+      expect(refused.body.message).toMatch(/consecutive failed sign-ins for this account from this address/)
+      waits.push(retryAfter(refused))
+      await endWait()
+      expect((await signIn(email, `late-typo-${round}`, address)).status).toBe(401)
+    }
+    // 15, 30 and 60 minutes, each less the few seconds the test has taken since it began.
+    expect(waits[0]).toBeGreaterThan(WINDOW_S / 2)
+    expect(waits[0]).toBeLessThanOrEqual(WINDOW_S)
+    expect(waits[1]).toBeGreaterThan(WINDOW_S)
+    expect(waits[1]).toBeLessThanOrEqual(2 * WINDOW_S)
+    expect(waits[2]).toBeGreaterThan(2 * WINDOW_S)
+    expect(waits[2]).toBeLessThanOrEqual(4 * WINDOW_S)
+
+    // Once a wait is over, concurrent guesses get one check between them.
+    await endWait()
+    const burst = await Promise.all(Array.from({ length: 5 }, (_, i) => signIn(email, `burst-${i}`, address)))
+    expect(statuses(burst)).toEqual({ 401: 1, 429: 4 })
+
+    // The right password after the wait ends the run: the free attempts are back, then 15 minutes again.
+    await endWait()
+    expect((await signIn(email, DEMO_PASSWORD, address)).status).toBe(200)
+    for (let i = 0; i < 5; i++) expect((await signIn(email, `new-typo-${i}`, address)).status).toBe(401)
+    const again = await signIn(email, DEMO_PASSWORD, address)
+    expect(again.status).toBe(429)
+    expect(retryAfter(again)).toBeLessThanOrEqual(WINDOW_S)
+  })
+})
+
 describe('ingest limit per gateway key', () => {
   it('answers 429 with Retry-After past the key\'s requests per minute, counting concurrent batches atomically', async () => {
     const auth = { authorization: `Bearer ${process.env.BRINKLINE_SIM_KEY}` }

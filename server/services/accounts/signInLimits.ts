@@ -1,15 +1,18 @@
 import { RateLimiterDrizzle, RateLimiterRes } from 'rate-limiter-flexible'
 import { rateLimits } from '../../db/schema'
 import type { Db } from '../../utils/db'
+import { waitAfterFailuresS } from './signInBackoff'
 
 /**
  * Sign-in attempt limits (issue 13 item 5), counted by rate-limiter-flexible in PostgreSQL
  * (`rate_limits`, one atomic upsert per counter) so they hold across instances and restarts.
  *
  * [common practice, OWASP Authentication Cheat Sheet; NIST SP 800-63B §5.2.2 "rate limiting"]
- * - **Account at one address**: a few failures, then a wait that ends with the window — the
- *   owner at their own console is never locked out for longer than that, and a guesser at
- *   another address cannot lock them out at all through this counter.
+ * - **Account at one address**: a few failures in a row, then a wait of one window that doubles
+ *   with each further failure, up to a ceiling (signInBackoff.ts); while waiting, one attempt at
+ *   a time. The owner at their own console always outlasts it, and a guesser at another address
+ *   cannot make them wait at all through this counter. A run of failures ends at a success, or
+ *   is forgotten `failureMemoryS` after it began.
  * - **Account from all addresses**: a larger hourly budget against guessing spread over many
  *   addresses (NIST: no more than 100 consecutive failures); when spent, every address waits for
  *   the rest of the hour — bounded, never a permanent lock.
@@ -28,7 +31,15 @@ export interface SignInLimitSettings {
   perAccount: number
   perAccountWindowS: number
   perAddress: number
+  /** The longest wait after consecutive failures of an account at an address (s). */
+  maxWaitS: number
+  failureMemoryS: number
 }
+
+/** While an account waits at an address, one attempt at a time: the next waits this long (s), far longer than one scrypt check. */
+const ONE_ATTEMPT_AT_A_TIME_S = 60
+/** The failure counter only adds up; its remaining points are never asked. */
+const UNCOUNTED = 1_000_000
 
 export type SignInReservation =
   | { allowed: true, settle: (succeeded: boolean) => Promise<void> }
@@ -37,10 +48,15 @@ export type SignInReservation =
 export function createSignInLimiter(db: Db, settings: SignInLimitSettings) {
   const store = { storeClient: db, schema: rateLimits, clearExpiredByTimeout: true }
   const limiter = (keyPrefix: string, points: number, duration: number) => new RateLimiterDrizzle({ ...store, keyPrefix, points, duration })
-  const counters = [
-    { name: 'failed sign-ins for this account from this address',
-      keyOf: (email: string, address: string) => `${email}|${address}`,
-      limiter: limiter('sign-in:account@address', settings.perAccountAtAddress, settings.windowS) },
+  const backoff = { free: settings.perAccountAtAddress, firstWaitS: settings.windowS, maxWaitS: settings.maxWaitS }
+  const atAddress = (email: string, address: string) => `${email}|${address}`
+  const failuresInRow = limiter('sign-in:failures@address', UNCOUNTED, settings.failureMemoryS)
+  const freeAttempts = { name: 'failed sign-ins for this account from this address', keyOf: atAddress,
+    limiter: limiter('sign-in:account@address', settings.perAccountAtAddress, settings.windowS) }
+  // Blocked for the wait after each failure past the free ones; open, it takes one attempt at a time.
+  const waiting = { name: 'consecutive failed sign-ins for this account from this address', keyOf: atAddress,
+    limiter: limiter('sign-in:wait@address', 1, ONE_ATTEMPT_AT_A_TIME_S) }
+  const shared = [
     { name: 'failed sign-ins from this address', keyOf: (_email: string, address: string) => address,
       limiter: limiter('sign-in:address', settings.perAddress, settings.windowS) },
     { name: 'failed sign-ins for this account', keyOf: (email: string) => email,
@@ -49,6 +65,8 @@ export function createSignInLimiter(db: Db, settings: SignInLimitSettings) {
 
   return {
     async reserve(email: string, address: string): Promise<SignInReservation> {
+      const failed = (await failuresInRow.get(atAddress(email, address)))?.consumedPoints ?? 0
+      const counters = [failed < backoff.free ? freeAttempts : waiting, ...shared]
       const taken: typeof counters = []
       for (const counter of counters) {
         try {
@@ -65,10 +83,15 @@ export function createSignInLimiter(db: Db, settings: SignInLimitSettings) {
       return {
         allowed: true,
         async settle(succeeded) {
-          if (!succeeded) return
-          const [atAddress, ...others] = counters
-          await atAddress!.limiter.delete(atAddress!.keyOf(email, address))
-          await Promise.all(others.map(c => c.limiter.reward(c.keyOf(email, address))))
+          const key = atAddress(email, address)
+          if (!succeeded) {
+            const { consumedPoints } = await failuresInRow.penalty(key)
+            const waitS = waitAfterFailuresS(consumedPoints, backoff)
+            if (waitS > 0) await waiting.limiter.block(key, waitS)
+            return
+          }
+          await Promise.all([freeAttempts.limiter, waiting.limiter, failuresInRow].map(l => l.delete(key)))
+          await Promise.all(shared.map(c => c.limiter.reward(c.keyOf(email, address))))
         },
       }
     },
