@@ -1,7 +1,7 @@
 // What the tag-detail charts show, computed from raw samples: the indicators run over every raw
 // sample with the engine's own functions; only the result is reduced to display buckets.
 import { detrend } from '../analysis/detrend'
-import { rollingIndicators } from '../analysis/pipeline'
+import { rollingIndicators } from '../analysis/windowAnalysis'
 import { evaluateRecord, type EvaluationPoint } from '../pipeline/evaluateRecord'
 import type { ChartIndicatorSettings as IndicatorSettings } from './chartIndicatorSettings'
 import { bucketOf, bucketSamples, toJsonNumbers, type BucketGrid } from './timeBuckets'

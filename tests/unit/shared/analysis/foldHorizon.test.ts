@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { foldHorizon, recoveryRateSe } from '#shared/analysis/foldHorizon'
 import type { FoldHorizon } from '#shared/analysis/foldHorizon'
-import { rollingIndicators } from '#shared/analysis/pipeline'
+import { rollingIndicators } from '#shared/analysis/windowAnalysis'
 import { createRng } from '#shared/analysis/random'
 import { simulateFold, simulateOu } from '#shared/analysis/simulate'
 import type { SampledSeries } from '#shared/analysis/simulate'

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { analyseWindow } from '#shared/analysis/pipeline'
+import { analyseWindow } from '#shared/analysis/windowAnalysis'
 import { checkQuality, DEFAULT_QUALITY_LIMITS } from '#shared/analysis/quality'
 import { createRng } from '#shared/analysis/random'
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { rollingIndicators } from '#shared/analysis/pipeline'
+import { rollingIndicators } from '#shared/analysis/windowAnalysis'
 import { createRng } from '#shared/analysis/random'
 import { simulateOu } from '#shared/analysis/simulate'
 import { defaultIndicatorSettings } from '#shared/pipeline/indicatorDefaults'

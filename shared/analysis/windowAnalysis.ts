@@ -1,4 +1,6 @@
-// The composite calls the scheduled task and the replay make.
+// One window of raw samples through the quality gate, detrending and indicators, and the same
+// rolling along a record for the tag charts (shared/utils/tagSeries.ts). The live evaluation is
+// shared/pipeline/evaluateRecord.ts, which has its own causal detrending.
 import { detrend } from './detrend'
 import { indicatorSeries } from './indicatorSeries'
 import type { IndicatorSeries } from './indicatorSeries'
@@ -41,7 +43,7 @@ export interface RollingSettings {
 }
 
 /**
- * The indicator time series over a whole record (for replays and trend tests): the record is
+ * The indicator time series over a whole record (for the tag charts): the record is
  * detrended once, then a window slides over the residuals.
  */
 export function rollingIndicators(times: Float64Array, values: Float64Array, settings: RollingSettings): IndicatorSeries {
