@@ -17,13 +17,16 @@ function createDb(url: string) {
 
 let db: Db | undefined
 
+/** The server's database address (the replay queue opens its own pool to it). */
+export function databaseUrl(): string {
+  const url = useRuntimeConfig().databaseUrl || process.env.DATABASE_URL
+  if (!url) throw new Error('Database URL missing: set NUXT_DATABASE_URL')
+  return url
+}
+
 /** The process-wide database handle (one pool per server instance). */
 export function useDb(): Db {
-  if (!db) {
-    const url = useRuntimeConfig().databaseUrl || process.env.DATABASE_URL
-    if (!url) throw new Error('Database URL missing: set NUXT_DATABASE_URL')
-    db = createDb(url)
-  }
+  db ??= createDb(databaseUrl())
   return db
 }
 

@@ -56,6 +56,10 @@ export type Comparison = typeof COMPARISONS[number]
 export const TARGET_KINDS = ['tag', 'unit'] as const
 export type TargetKind = typeof TARGET_KINDS[number]
 
+/** Where a replay of stored history stands (docs/design.md §D4 replay): queued, running, then done or failed. */
+export const REPLAY_STATES = ['queued', 'running', 'done', 'failed'] as const
+export type ReplayState = typeof REPLAY_STATES[number]
+
 /** Tile status of a tag (docs/design.md §D3), most severe first after the data problems. */
 export const TAG_STATUSES = ['steady', 'watch', 'warning', 'alarm', 'no data', 'bad quality'] as const
 export type TagStatus = typeof TAG_STATUSES[number]

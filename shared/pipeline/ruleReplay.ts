@@ -1,7 +1,9 @@
-// Replays one tag rule over stored or simulated evaluation points exactly as the live task does:
-// the rule's measure of each point through the on-/off-delay condition tracker (docs/science.md §S7.3).
-// The detection study and its tests use it to count what the live alarm would have raised.
-import { INACTIVE, stepCondition, type ConditionSettings } from '../alarms/conditionTracker'
+// Replays tag rules over stored or simulated samples and evaluation points exactly as the live
+// task does (docs/science.md §S7.3): value rules see every sample, the other measures each
+// evaluation point, in time order, through the on-/off-delay condition tracker. The live tick
+// (server/services/pipeline/tagProcessing.ts) feeds the same observations to its stored alarms;
+// the replay job and the detection study count what the rules would have raised.
+import { INACTIVE, stepCondition, type ConditionSettings, type ConditionState } from '../alarms/conditionTracker'
 import type { TagMeasure } from '../alarms/vocabulary'
 import type { EvaluationPoint } from './evaluateRecord'
 import { measureOf } from './ruleMeasure'
@@ -16,4 +18,58 @@ export function ruleActivations(points: readonly EvaluationPoint[], measure: Exc
     if (step.change === 'activate') raised.push(point.time)
   }
   return raised
+}
+
+/** One observation for one rule: `rule` indexes the measures passed in. */
+export interface RuleObservation {
+  rule: number
+  time: number
+  value: number
+  /** The newest evaluation at this moment (what an alarm raised now would describe). */
+  current: EvaluationPoint | null
+}
+
+/**
+ * The observations a tick's new samples [firstNew, end) and their evaluation points give a tag's
+ * rules, in the live order: each sample to the value rules, then every point up to that sample
+ * to the others. `previous` is the newest evaluation before these samples.
+ */
+export function* tagObservations(
+  times: ArrayLike<number>, values: ArrayLike<number>, firstNew: number, points: readonly EvaluationPoint[],
+  measures: readonly TagMeasure[], previous: EvaluationPoint | null,
+): Generator<RuleObservation> {
+  let next = 0
+  let current = previous
+  for (let i = firstNew; i < times.length; i++) {
+    for (let r = 0; r < measures.length; r++) {
+      if (measures[r] === 'value') yield { rule: r, time: times[i]!, value: values[i]!, current }
+    }
+    while (next < points.length && points[next]!.time <= times[i]!) {
+      current = points[next++]!
+      for (let r = 0; r < measures.length; r++) {
+        const measure = measures[r]!
+        if (measure !== 'value') yield { rule: r, time: current.time, value: measureOf(current, measure), current }
+      }
+    }
+  }
+}
+
+export interface ConditionChange {
+  rule: number
+  time: number
+  value: number
+  change: 'activate' | 'return'
+}
+
+/** Steps each rule's condition through the observations; `states` carry over between calls. */
+export function replayConditions(
+  conditions: readonly ConditionSettings[], states: ConditionState[], observations: Iterable<RuleObservation>,
+): ConditionChange[] {
+  const changes: ConditionChange[] = []
+  for (const o of observations) {
+    const step = stepCondition(conditions[o.rule]!, states[o.rule]!, o.time, o.value)
+    states[o.rule] = step.state
+    if (step.change) changes.push({ rule: o.rule, time: o.time, value: o.value, change: step.change })
+  }
+  return changes
 }

@@ -1,16 +1,12 @@
 import type postgres from 'postgres'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { CATALOGUE, type CatalogueUnit } from '../../shared/demo/catalogue'
-import { seededNormal } from '../../simulators/lib/random'
-import { UnitSampler } from '../../simulators/lib/unitSampler'
-import { createUnit } from '../../simulators/units/createUnit'
-import { DEMO_RULES, demoRuleColumns } from '../../server/services/demo/demoAlarmRules'
 import { defaultIndicatorSettings } from '../../shared/pipeline/indicatorDefaults'
 import { testSql } from '../support/db'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
+import { busToCollapse, FIXED_START_MS, simulateDemoUnit, tagWithDemoRules as withDemoRules } from '../support/demoPlant'
 import { createTestTag, ingestAll, runServerTask, waitForDemoSite } from '../support/pipeline'
 import { setupBuiltServer } from '../support/server'
-import { call, signInAs } from '../support/session'
+import { signInAs } from '../support/session'
 
 await setupBuiltServer(MANUAL_TICKS_ENV)
 const sql = testSql()
@@ -21,29 +17,8 @@ beforeAll(async () => {
   engineer = await signInAs('engineer')
 })
 
-/** Creates a test tag and gives it the demo rules of `demoTag` (same thresholds and rationale). */
-async function tagWithDemoRules(code: string, unitCode: string, samplePeriodS: number, demoTag: string): Promise<number> {
-  const id = await createTestTag(sql, code, unitCode, samplePeriodS)
-  const [tag] = await sql`select id, unit_id as "unitId", sample_period_s as "samplePeriodS" from tags where id = ${id}`
-  for (const rule of DEMO_RULES.filter(r => r.tag === demoTag)) {
-    const body = { ...demoRuleColumns(rule, tag as { id: number, unitId: number, samplePeriodS: number }), name: `${rule.name} (${code})` }
-    const res = await call('/api/rules', { method: 'POST', cookie: engineer, json: body })
-    if (res.status !== 201) throw new Error(`rule create answered ${res.status}: ${JSON.stringify(res.body)}`)
-  }
-  return id
-}
-
-/** A demo unit read through its sensors, with its tags renamed for the test and sampled as given. */
-function simulate(unitCode: CatalogueUnit['code'], rename: Record<string, string>, samplePeriodS: number | null, seed: number) {
-  const base = CATALOGUE.find(u => u.code === unitCode)!
-  const catalogue = { ...base, tags: base.tags.map(t => ({ ...t, samplePeriodSeconds: samplePeriodS ?? t.samplePeriodSeconds })) }
-  const unit = createUnit(unitCode, { speed: 1, normal: seededNormal(seed) })
-  return { unit, sampler: new UnitSampler(unit, catalogue, seededNormal(seed + 100), 0), rename }
-}
-
-// Fixed sample times: the live path seeds its surrogates from (tag, evaluation time), so fixed
-// times make each run draw the same surrogates and the outcome reproducible, not 97 % likely.
-const FIXED_START_MS = Date.UTC(2026, 0, 5, 0, 0, 0)
+const tagWithDemoRules = (code: string, unitCode: string, samplePeriodS: number, demoTag: string) =>
+  withDemoRules(sql, engineer, code, unitCode, samplePeriodS, demoTag)
 
 const alarmsOn = (tagIds: number[]) => sql`select a.raised_at, r.name from alarms a join alarm_rules r on r.id = a.rule_id where a.tag_id = any(${tagIds}) order by a.raised_at`
 
@@ -57,7 +32,7 @@ describe('early warning over simulated plants (docs/design.md §D11 detection)',
   // calibrated rate: nothing but at most that one advisory alert, never an alarm or a fold.
   it('raises no alarm and at most the calibrated one advisory alert on the steady unit over a simulated week', async () => {
     const ids = [await tagWithDemoRules('TI-491', 'T-400', 60, 'TI-401'), await tagWithDemoRules('LI-492', 'T-400', 60, 'LI-402')]
-    const { sampler } = simulate('steady', {}, 60, 7)
+    const { sampler } = simulateDemoUnit('steady', 60, 7)
     const start = FIXED_START_MS
     const rows = sampler.samplesUntil(7 * 86_400_000).map(s => ({
       tag: s.tag === 'TI-401' ? 'TI-491' : 'LI-492', time: new Date(start + Date.parse(s.time)).toISOString(), value: s.value,
@@ -85,13 +60,8 @@ describe('early warning over simulated plants (docs/design.md §D11 detection)',
     await sql`insert into units (site_id, code, name, kind) select site_id, 'B-391', 'Test load bus', kind from units where code = 'B-300'`
     const voltage = await tagWithDemoRules('EI-391', 'B-391', 2, 'EI-301')
     const power = await createTestTag(sql, 'JI-392', 'B-391', 2)
-    const { unit, sampler } = simulate('grid', {}, null, 1)
-    const samples: { tag: string, time: number, value: number }[] = []
-    let tipMs: number | null = null
-    for (let ms = 60_000; ms <= 3 * 3_600_000 && tipMs === null; ms += 60_000) {
-      for (const s of sampler.samplesUntil(ms)) samples.push({ tag: s.tag === 'EI-301' ? 'EI-391' : 'JI-392', time: Date.parse(s.time), value: s.value })
-      if (unit.cycle?.phase === 'tipped') tipMs = ms
-    }
+    const { samples: simulated, tipMs } = busToCollapse()
+    const samples = simulated.map(s => ({ ...s, tag: s.tag === 'EI-301' ? 'EI-391' : 'JI-392' }))
     expect(tipMs, 'the simulated bus never tipped').not.toBeNull()
     const shift = FIXED_START_MS - tipMs!
     await ingestAll(samples.filter(s => s.time <= tipMs!).map(s => ({ ...s, time: new Date(s.time + shift).toISOString() })))

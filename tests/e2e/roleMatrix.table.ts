@@ -38,7 +38,7 @@ const GATEWAY = row(401, 401, 401, 401, 401, ok)
 export type Fixture =
   | 'alarm' | 'alert' | 'bumpTest' | 'incident' | 'rule' | 'site' | 'unit' | 'tag'
   | 'spareSite' | 'spareUnit' | 'spareTag' | 'spareUser'
-  | 'gatewayToRevoke' | 'gatewayToRotate' | 'opcuaConnection' | 'opcuaToDelete' | 'route' | 'routeToDelete'
+  | 'gatewayToRevoke' | 'gatewayToRotate' | 'opcuaConnection' | 'opcuaToDelete' | 'route' | 'routeToDelete' | 'replay'
 
 export interface MatrixEntry {
   expect: Row
@@ -112,6 +112,10 @@ export const ROLE_MATRIX: Record<string, MatrixEntry> = {
   'POST /api/public/set-password': { expect: PUBLIC },
   'POST /api/public/sign-in': { expect: PUBLIC },
   'POST /api/public/test/run-task': { expect: PUBLIC },
+
+  'GET /api/replays/:id': { expect: CONFIGURE, id: 'replay' },
+  'GET /api/replays': { expect: CONFIGURE },
+  'POST /api/replays': { expect: CONFIGURE },
 
   'PUT /api/review/alert-outcomes/:id': { expect: REVIEW, id: 'alert' },
   'GET /api/review/health': { expect: VIEW },

@@ -64,6 +64,7 @@ async function makeFixtures() {
     unitId: ids.spareUnit, code: 'TI-9801', description: 'Matrix spare tag', engineeringUnit: 'K', samplePeriodS: 1, rangeLow: 0, rangeHigh: 1,
   })
   ids.bumpTest = await created('engineer', `/api/tags/${ids.tag}/bump-tests`, { stepTime: '2026-01-01 10:00:00', stepSize: 1, responseS: 60 })
+  ids.replay = await created('engineer', '/api/replays', { tagId: ids.tag, from: '2026-01-01T00:00:00Z', to: '2026-01-01T06:00:00Z' })
 
   const startedAt = Date.now() - 3_600_000
   ids.alarm = await insertOccurrence(sql, await insertRule(sql, { unitCode: 'T-400', tagCode: 'TI-401' }), [activation(startedAt)], null)

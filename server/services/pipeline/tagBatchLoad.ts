@@ -8,6 +8,14 @@ export const MAX_NEW_SAMPLES_PER_TICK = 50_000
 /** Detrending warm-up before the oldest window a tick evaluates, in detrending bandwidths. */
 const WARMUP_BANDWIDTHS = 5
 
+/**
+ * Samples of history a tag's windows need before its new samples: a full trend window and the
+ * detrending warm-up before it. The replay job loads the same, so it evaluates as a tick does.
+ */
+export function historySamples(settings: Pick<typeof indicatorSettings.$inferSelect, 'trendWindowSamples' | 'detrendBandwidthS'>, samplePeriodS: number): number {
+  return settings.trendWindowSamples + Math.ceil(WARMUP_BANDWIDTHS * settings.detrendBandwidthS / samplePeriodS)
+}
+
 export interface TagClaim {
   claim: typeof tagAnalysisState.$inferSelect
   tag: typeof tags.$inferSelect
@@ -52,7 +60,7 @@ export async function loadRecords(tx: DbTransaction, claims: TagClaim[], horizon
   })
   const history = await sampleWindows(tx, 'newest', needHistory.map(c => ({
     tagId: c.tag.id, after: null, until: c.claim.lastSampleTime,
-    limit: c.settings.trendWindowSamples + Math.ceil(WARMUP_BANDWIDTHS * c.settings.detrendBandwidthS / c.tag.samplePeriodS),
+    limit: historySamples(c.settings, c.tag.samplePeriodS),
   })))
   return claims.map((c) => {
     const before = history.get(c.tag.id) ?? NO_SAMPLES

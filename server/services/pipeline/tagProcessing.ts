@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm'
 import type { EvaluationPoint } from '#shared/pipeline/evaluateRecord'
-import { alarmContext, measureOf } from '#shared/pipeline/ruleMeasure'
-import type { TagMeasure } from '#shared/alarms/vocabulary'
+import { alarmContext } from '#shared/pipeline/ruleMeasure'
+import { tagObservations } from '#shared/pipeline/ruleReplay'
 import { evaluateRecords } from './recordEvaluation'
 import { claimTags, latestStoredPoints, loadRecords, type TagRecord } from './tagBatchLoad'
 import { advanceClaims, storePoints, storeStatuses } from './tagBatchStore'
@@ -70,7 +70,7 @@ export async function processTagBatch(db: Db, tagIds: number[], ctx: ChangeConte
 }
 
 /**
- * Replays each tag's new samples and evaluations through its rules in time order. The rules'
+ * Feeds each tag's new samples and evaluations to its rules in time order (shared/pipeline/ruleReplay). The rules'
  * states are locked once for the batch and saved once at its end.
  */
 async function runRules(tx: DbTransaction, evaluated: EvaluatedTag[], ctx: ChangeContext): Promise<void> {
@@ -84,19 +84,6 @@ async function runRules(tx: DbTransaction, evaluated: EvaluatedTag[], ctx: Chang
 }
 
 async function replayTag(tx: DbTransaction, e: EvaluatedTag, runtimes: RuleRuntime[], ctx: ChangeContext): Promise<void> {
-  const { t, v, points } = e
-  let next = 0
-  let current = e.previous
-  const context = () => alarmContext(current)
-  for (let i = t.length - e.newCount; i < t.length; i++) {
-    for (const rt of runtimes) {
-      if (rt.rule.measure === 'value') await observe(tx, rt, t[i]!, v[i]!, context, ctx)
-    }
-    while (next < points.length && points[next]!.time <= t[i]!) {
-      current = points[next++]!
-      for (const rt of runtimes) {
-        if (rt.rule.measure !== 'value') await observe(tx, rt, current.time, measureOf(current, rt.rule.measure as Exclude<TagMeasure, 'value'>), context, ctx)
-      }
-    }
-  }
+  const observations = tagObservations(e.t, e.v, e.t.length - e.newCount, e.points, runtimes.map(rt => rt.rule.measure), e.previous)
+  for (const o of observations) await observe(tx, runtimes[o.rule]!, o.time, o.value, () => alarmContext(o.current), ctx)
 }

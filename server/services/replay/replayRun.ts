@@ -1,0 +1,137 @@
+import { eq } from 'drizzle-orm'
+import { INACTIVE } from '#shared/alarms/conditionTracker'
+import type { EvaluationPoint } from '#shared/pipeline/evaluateRecord'
+import { replayConditions, tagObservations } from '#shared/pipeline/ruleReplay'
+import { replayOutcome, type ReplayChart, type ReplayFiring, type ReplayResult } from '#shared/pipeline/replayOutcome'
+import { MAX_REPLAY_SAMPLES } from '#shared/schemas/replay'
+import { bucketSamples, toJsonNumbers } from '#shared/utils/timeBuckets'
+import { replays, tags, type ReplayRow } from '../../db/schema'
+import type { Db } from '../../utils/db'
+import { isDatabaseUnavailable } from '../../utils/dbUnavailable'
+import { evaluateRecords } from '../pipeline/recordEvaluation'
+import { historySamples } from '../pipeline/tagBatchLoad'
+
+/**
+ * New samples per step of a replay: what one tick of the live pipeline takes from a tag with a
+ * backlog of this size, and how often the progress moves.
+ */
+const STEP_SAMPLES = 2_000
+/** Display buckets of the value chart and most judgement points drawn. */
+const CHART_BUCKETS = 1_000
+const CHART_POINTS = 4_000
+
+/** The replay cannot run as asked (too many samples); it fails with this reason. */
+class ReplayRefused extends Error {}
+
+const seconds = (d: Date) => d.getTime() / 1000
+const finiteOrNull = (x: number) => (Number.isFinite(x) ? x : null)
+
+/**
+ * Runs one replay: the tag's good samples in the range, preceded by the history a tick would load,
+ * go through the live engine (shared/pipeline/evaluateRecord on the server's evaluation pool) in
+ * tick-sized steps and through the tag's rules as the tick feeds them (shared/pipeline/ruleReplay),
+ * in time order, with the progress stored after each step. Nothing is written to the live
+ * tables: the replay's alarms are only its result. A database outage is thrown so the queue
+ * retries the job; any other failure is stored on the replay.
+ */
+export async function runReplay(db: Db, id: number): Promise<void> {
+  const [replay] = await db.update(replays)
+    .set({ state: 'running', startedAt: new Date(), finishedAt: null, progress: 0, samplesDone: 0, result: null, error: null })
+    .where(eq(replays.id, id)).returning()
+  if (!replay) return
+  try {
+    const result = await evaluateReplay(db, replay)
+    await db.update(replays).set({ state: 'done', progress: 1, result, finishedAt: new Date() }).where(eq(replays.id, id))
+  }
+  catch (err) {
+    if (isDatabaseUnavailable(err)) throw err
+    if (!(err instanceof ReplayRefused)) console.error(`[replay] replay ${id} failed:`, err)
+    const message = err instanceof Error ? err.message : String(err)
+    await db.update(replays).set({ state: 'failed', error: message, finishedAt: new Date() }).where(eq(replays.id, id))
+  }
+}
+
+async function evaluateReplay(db: Db, replay: ReplayRow): Promise<ReplayResult> {
+  const [tag] = await db.select({ samplePeriodS: tags.samplePeriodS }).from(tags).where(eq(tags.id, replay.tagId))
+  if (!tag) throw new ReplayRefused(`tag ${replay.tagId} no longer exists`)
+  const { settings, rules } = replay
+  const period = tag.samplePeriodS
+  const loaded = await loadReplaySamples(db, replay, historySamples(settings, period))
+  const { times, values, first } = loaded
+  const total = times.length - first
+  await db.update(replays).set({ samplesTotal: total }).where(eq(replays.id, replay.id))
+  // Evaluations fall on every evaluateEvery-th good sample the tag ever had, as in the live task.
+  let counter = loaded.samplesBefore % settings.evaluateEvery
+  let previous: EvaluationPoint | null = null
+  const states = rules.map(() => ({ ...INACTIVE }))
+  const measures = rules.map(r => r.measure)
+  const firings: ReplayFiring[] = []
+  const points: EvaluationPoint[] = []
+  for (let from = first; from < times.length; from += STEP_SAMPLES) {
+    const to = Math.min(times.length, from + STEP_SAMPLES)
+    const start = Math.max(0, from - historySamples(settings, period))
+    const t = times.subarray(start, to)
+    const v = values.subarray(start, to)
+    const [evaluation] = await evaluateRecords([{
+      tagId: replay.tagId, times: t, values: v, firstNew: from - start, samplesSinceEvaluation: counter, samplePeriodS: period, settings,
+    }])
+    counter = evaluation!.samplesSinceEvaluation
+    const changes = replayConditions(rules, states, tagObservations(t, v, from - start, evaluation!.points, measures, previous))
+    for (const c of changes) firings.push({ ruleId: rules[c.rule]!.id, time: c.time, value: finiteOrNull(c.value), change: c.change })
+    previous = evaluation!.points.at(-1) ?? previous
+    points.push(...evaluation!.points)
+    const done = to - first
+    await db.update(replays).set({ samplesDone: done, progress: done / total }).where(eq(replays.id, replay.id))
+  }
+  const span = {
+    from: seconds(replay.fromTime), to: seconds(replay.toTime),
+    eventTime: replay.eventTime ? seconds(replay.eventTime) : null, warningWindowS: replay.warningWindowS,
+  }
+  return {
+    ...replayOutcome(rules, firings, span),
+    samples: total,
+    evaluations: points.length,
+    firings,
+    chart: replayChart(times.subarray(first), values.subarray(first), points, span),
+  }
+}
+
+/**
+ * The range's good samples (bad-quality readings left out, as the live task does) after the
+ * `history` newest ones before it, and how many good samples the tag had before the range.
+ */
+async function loadReplaySamples(db: Db, replay: ReplayRow, history: number) {
+  const from = replay.fromTime.toISOString()
+  const to = replay.toTime.toISOString()
+  const [counted] = await db.$sql<{ before: number, inside: number }[]>`
+    select (select count(*) from samples where tag_id = ${replay.tagId} and time < ${from}::timestamptz and quality < 2)::int as before,
+      (select count(*) from samples where tag_id = ${replay.tagId} and time >= ${from}::timestamptz and time <= ${to}::timestamptz and quality < 2)::int as inside`
+  if (counted!.inside > MAX_REPLAY_SAMPLES)
+    throw new ReplayRefused(`the range holds ${counted!.inside} good samples; a replay evaluates at most ${MAX_REPLAY_SAMPLES}: choose a shorter range`)
+  const rows = await db.$sql`
+    (select extract(epoch from time)::float8 as t, value from samples
+      where tag_id = ${replay.tagId} and time < ${from}::timestamptz and quality < 2 order by time desc limit ${history})
+    union all
+    (select extract(epoch from time)::float8 as t, value from samples
+      where tag_id = ${replay.tagId} and time >= ${from}::timestamptz and time <= ${to}::timestamptz and quality < 2)
+    order by t`.values()
+  const times = Float64Array.from(rows, r => Number(r[0]))
+  const values = Float64Array.from(rows, r => Number(r[1]))
+  const first = times.findIndex(t => t >= seconds(replay.fromTime))
+  return { times, values, first: first < 0 ? times.length : first, samplesBefore: counted!.before }
+}
+
+function replayChart(
+  times: Float64Array, values: Float64Array, points: EvaluationPoint[], span: { from: number, to: number },
+): ReplayChart {
+  const buckets = bucketSamples(times, values, { from: span.from, to: span.to + 1e-3, count: CHART_BUCKETS })
+  const stride = Math.max(1, Math.ceil(points.length / CHART_POINTS))
+  const shown = points.filter((_, i) => i % stride === 0)
+  return {
+    time: Array.from(buckets.time),
+    value: toJsonNumbers(buckets.mean),
+    pointTime: shown.map(p => p.time),
+    ar1: shown.map(p => p.ar1),
+    pAr1: shown.map(p => p.pAr1),
+  }
+}

@@ -1,0 +1,136 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { ADVISORY_CAUTION } from '../../shared/alarms/vocabulary'
+import { testSql } from '../support/db'
+import { busToCollapse, FIXED_START_MS, simulateDemoUnit, tagWithDemoRules } from '../support/demoPlant'
+import { MANUAL_TICKS_ENV } from '../support/mailbox'
+import { ingestAll, runServerTask, waitForDemoSite } from '../support/pipeline'
+import { setupBuiltServer } from '../support/server'
+import { call, signInAs } from '../support/session'
+
+// Replays of stored history (issue 14 item 4) through the replay job (pg-boss worker on).
+await setupBuiltServer({ ...MANUAL_TICKS_ENV, BRINKLINE_REPLAY_WORKER: '1' })
+const sql = testSql()
+afterAll(() => sql.end())
+let engineer = ''
+beforeAll(async () => {
+  await waitForDemoSite(sql)
+  engineer = await signInAs('engineer')
+})
+
+const iso = (ms: number) => new Date(ms).toISOString()
+
+/** Asks for a replay and waits for its job to finish, checking the progress it reports on the way. */
+async function replayToEnd(body: Record<string, unknown>) {
+  const created = await call('/api/replays', { method: 'POST', cookie: engineer, json: body })
+  expect(created.status, JSON.stringify(created.body)).toBe(201)
+  expect(created.body.advisory).toBe(ADVISORY_CAUTION)
+  const id = created.body.id as number
+  let last = -1
+  // No time limit of its own: the job takes as long as the machine needs, the test's timeout bounds it.
+  for (;;) {
+    const res = await call(`/api/replays/${id}`, { cookie: engineer })
+    expect(res.status).toBe(200)
+    expect(res.body.progress).toBeGreaterThanOrEqual(last)
+    last = res.body.progress
+    if (res.body.state === 'done' || res.body.state === 'failed') return res.body
+    await new Promise(resolve => setTimeout(resolve, 500))
+  }
+}
+
+type Firing = { ruleId: number, time: number, change: string }
+const activations = (firings: Firing[]) => firings.filter(f => f.change === 'activate').map(f => ({ ruleId: f.ruleId, ms: Math.round(f.time * 1000) }))
+
+describe('replay of stored history', () => {
+  // The demo load bus driven to voltage collapse (docs/science.md §S10.2), stored and processed by
+  // the live pipeline in two ticks; the replay then runs the same history in its own steps. The
+  // outside reference for "the same alarms at the same times" is what the live pipeline stored.
+  it('gives the live pipeline\'s alarms at the same times and warns before the marked collapse', async () => {
+    await sql`insert into units (site_id, code, name, kind) select site_id, 'B-381', 'Replay load bus', kind from units where code = 'B-300'`
+    const voltage = await tagWithDemoRules(sql, engineer, 'EI-381', 'B-381', 2, 'EI-301')
+    const { samples, tipMs } = busToCollapse()
+    expect(tipMs, 'the simulated bus never tipped').not.toBeNull()
+    const shift = FIXED_START_MS - tipMs!
+    const rows = samples.filter(s => s.tag === 'EI-301' && s.time <= tipMs!).map(s => ({ tag: 'EI-381', time: iso(s.time + shift), value: s.value }))
+    const half = Math.floor(rows.length / 2)
+    await ingestAll(rows.slice(0, half))
+    await runServerTask('indicators:refresh')
+    await ingestAll(rows.slice(half))
+    await runServerTask('indicators:refresh')
+    const live = await sql`select a.rule_id, e.condition_time from alarm_events e join alarms a on a.id = e.alarm_id
+      where a.tag_id = ${voltage} and e.event = 'activate' order by e.condition_time, a.rule_id`
+    expect(live.length, 'the live pipeline raised nothing on the approach').toBeGreaterThan(0)
+    const [before] = await sql`select count(*)::int as n from alarm_events`
+
+    const report = await replayToEnd({
+      tagId: voltage, from: rows[0]!.time, to: iso(FIXED_START_MS), eventTime: iso(FIXED_START_MS), warningWindowMinutes: 120,
+    })
+    expect(report.state, report.error).toBe('done')
+    expect(report.progress).toBe(1)
+    expect(report.result.samples).toBe(rows.length)
+    const replayed = activations(report.result.firings)
+    const stored = live.map(r => ({ ruleId: Number(r.rule_id), ms: new Date(r.condition_time).getTime() }))
+    const byTime = (a: { ruleId: number, ms: number }, b: { ruleId: number, ms: number }) => a.ms - b.ms || a.ruleId - b.ruleId
+    expect(replayed.sort(byTime)).toEqual(stored.sort(byTime))
+    // The replay's alarms are only its report: nothing was added to the live alarm history.
+    const [after] = await sql`select count(*)::int as n from alarm_events`
+    expect(after!.n).toBe(before!.n)
+
+    const warningRule = (report.rules as { id: number, name: string }[]).find(r => r.name.includes('slowing down'))!
+    const outcome = (report.result.rules as { ruleId: number, leadTimeS: number | null }[]).find(r => r.ruleId === warningRule.id)!
+    const [firstAlert] = await sql`select min(e.condition_time) as t from alarm_events e join alarms a on a.id = e.alarm_id
+      where a.rule_id = ${warningRule.id} and e.event = 'activate'`
+    expect(outcome.leadTimeS, 'no slowing-down alert before the collapse').not.toBeNull()
+    expect(outcome.leadTimeS! * 1000).toBeCloseTo(FIXED_START_MS - new Date(firstAlert!.t).getTime(), 0)
+    console.log(`replay: slowing-down alert ${(outcome.leadTimeS! / 60).toFixed(1)} min before the marked collapse; earliest warning of any rule ${(report.result.leadTimeS / 60).toFixed(1)} min`)
+    expect(outcome.leadTimeS!).toBeGreaterThan(120)
+    expect(report.result.chart.pointTime.length).toBe(report.result.evaluations)
+    const [audit] = await sql`select detail from audit_log where action = 'replay.create' and detail->>'id' = ${String(report.id)}`
+    expect(audit, 'the replay was not audited').toBeTruthy()
+  }, 600_000)
+
+  // The steady feed tank (two OU loops, docs/science.md §S2.3): its stability never changes. The
+  // calibrated rate is 0.02 false slowing-down alerts per tag-day (docs/science.md §S8.3), so two
+  // days expect 0.04 and the fixed seed's record raises none; its limit rules sit far from the loop's values.
+  it('raises nothing over a steady history and reports no false alarms per day', async () => {
+    const tag = await tagWithDemoRules(sql, engineer, 'TI-481', 'T-400', 60, 'TI-401')
+    const { sampler } = simulateDemoUnit('steady', 60, 7)
+    const rows = sampler.samplesUntil(2 * 86_400_000).filter(s => s.tag === 'TI-401')
+      .map(s => ({ tag: 'TI-481', time: iso(FIXED_START_MS + Date.parse(s.time)), value: s.value }))
+    await ingestAll(rows)
+    const report = await replayToEnd({ tagId: tag, from: rows[0]!.time, to: rows.at(-1)!.time })
+    expect(report.state, report.error).toBe('done')
+    expect(report.result.samples).toBe(rows.length)
+    expect(report.result.evaluations).toBeGreaterThan(0)
+    expect(report.result.firings).toEqual([])
+    expect(report.result.falseAlarmsPerDay).toBe(0)
+    expect(report.result.leadTimeS).toBeNull()
+    const list = await call('/api/replays', { cookie: engineer })
+    expect(list.body.replays.map((r: { id: number }) => r.id)).toContain(report.id)
+  }, 600_000)
+
+  it('refuses bad requests naming the field, and callers without the engineer role', async () => {
+    const [tag] = await sql`select id from tags order by id limit 1`
+    const base = { tagId: tag!.id, from: '2026-01-01T00:00:00Z', to: '2026-01-02T00:00:00Z' }
+    const bad: [Record<string, unknown>, string][] = [
+      [{ ...base, to: '2025-12-31T00:00:00Z' }, 'to'],
+      [{ ...base, to: '2026-06-01T00:00:00Z' }, 'to'],
+      [{ ...base, from: '2026-01-01T00:00:00' }, 'from'],
+      [{ ...base, eventTime: '2026-02-01T00:00:00Z' }, 'eventTime'],
+      [{ ...base, warningWindowMinutes: 0 }, 'warningWindowMinutes'],
+      [{ ...base, tagId: 2 ** 31 }, 'tagId'],
+      [{ ...base, tagId: 999_999 }, 'tagId'],
+      [{ ...base, settings: { alpha: 0.01 } }, 'settings.windowSamples'],
+      [{ ...base, extra: 1 }, 'body'],
+    ]
+    for (const [body, field] of bad) {
+      const res = await call('/api/replays', { method: 'POST', cookie: engineer, json: body })
+      expect(res.status, JSON.stringify(body)).toBe(400)
+      expect(res.body.message, JSON.stringify(body)).toContain(field)
+    }
+    const operator = await signInAs('operator')
+    expect((await call('/api/replays', { method: 'POST', cookie: operator, json: base })).status).toBe(403)
+    expect((await call('/api/replays', { cookie: operator })).status).toBe(403)
+    expect((await call('/api/replays/2147483648', { cookie: engineer })).status).toBe(400)
+    expect((await call('/api/replays/999999', { cookie: engineer })).status).toBe(404)
+  })
+})
