@@ -1,0 +1,73 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { BrowserContext } from 'playwright-core'
+import { url } from '@nuxt/test-utils/e2e'
+import { wallClockText } from '../../shared/utils/timeText'
+import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
+import { testSql } from '../support/db'
+import { busToCollapse, FIXED_START_MS, tagWithDemoRules } from '../support/demoPlant'
+import { MANUAL_TICKS_ENV } from '../support/mailbox'
+import { ingestAll, waitForDemoSite } from '../support/pipeline'
+import { setupBuiltServer } from '../support/server'
+import { signInAs } from '../support/session'
+
+// The replay workbench (issue 14 item 4): an engineer asks for a replay of stored history with a
+// marked event, reloads the page while the job runs, and reads the saved report.
+await setupBuiltServer({ ...MANUAL_TICKS_ENV, BRINKLINE_REPLAY_WORKER: '1' })
+const sql = testSql()
+let context: BrowserContext
+beforeAll(async () => {
+  await waitForDemoSite(sql)
+  context = await launchChromium()
+})
+afterAll(async () => {
+  await context?.close()
+  await sql.end()
+})
+
+/** The demo site's clock (server/services/demo/demoSeed.ts), as the form reads times. */
+const ZONE = 'Europe/London'
+const typed = (ms: number) => wallClockText(new Date(ms), ZONE).slice(0, 16)
+
+describe('engineer replays stored history on the workbench', () => {
+  it('queues a replay, follows its progress through a reload and reads the report with the advisory caution', async () => {
+    await sql`insert into units (site_id, code, name, kind) select site_id, 'B-371', 'Workbench load bus', kind from units where code = 'B-300'`
+    await tagWithDemoRules(sql, await signInAs('engineer'), 'EI-371', 'B-371', 2, 'EI-301')
+    const { samples, tipMs } = busToCollapse()
+    const shift = FIXED_START_MS - tipMs!
+    const rows = samples.filter(s => s.tag === 'EI-301' && s.time <= tipMs!).map(s => ({ tag: 'EI-371', time: new Date(s.time + shift).toISOString(), value: s.value }))
+    await ingestAll(rows)
+
+    const page = await context.newPage()
+    await signInThroughForm(page, 'engineer')
+    await page.goto(url('/workbench'))
+    await page.getByRole('link', { name: 'Replays' }).click()
+    await page.getByRole('heading', { name: 'Workbench · replays' }).waitFor()
+    const form = page.getByRole('form', { name: 'New replay' })
+    await form.getByRole('combobox', { name: /^Tag/ }).selectOption({ label: 'EI-371 — Test signal EI-371' })
+    await form.getByRole('textbox', { name: /^From/ }).fill(typed(Date.parse(rows[0]!.time) - 60_000))
+    await form.getByRole('textbox', { name: /^To \(/ }).fill(typed(FIXED_START_MS))
+    await form.getByRole('textbox', { name: /^Known event/ }).fill(typed(FIXED_START_MS))
+    // The approach is under an hour long: a 30-minute window leaves normal operation before it.
+    await form.getByRole('textbox', { name: /^Warning window/ }).fill('30')
+    await form.getByRole('textbox', { name: /^Note/ }).fill('bus collapse, demo')
+    await form.getByRole('button', { name: 'Queue replay' }).click()
+    await page.waitForURL(/\/workbench\/replays\/\d+$/)
+    // The job runs on the server: a reload finds it where it is, queued, running or done.
+    await page.reload()
+    await page.getByRole('heading', { name: /^Replay \d+ · EI-371$/ }).waitFor()
+    expect(await page.getByRole('note').first().textContent()).toContain('Advisory only')
+    await page.getByRole('heading', { name: 'Report' }).waitFor({ timeout: 600_000 })
+    const summary = await page.getByTestId('replay-summary').textContent()
+    expect(summary).toMatch(/Earliest warning: .* before the event/)
+    await expect.poll(() => page.getByRole('table', { name: 'What would have fired' }).locator('tbody tr').filter({ hasText: 'would have raised' }).count()).toBeGreaterThan(0)
+    expect(await page.getByRole('img', { name: 'Value, with what would have fired chart' }).count()).toBe(1)
+    await screenshot(page, 'engineer-replay-report')
+
+    await page.getByRole('link', { name: 'All replays' }).click()
+    const list = page.getByRole('table', { name: 'Replays' })
+    await list.waitFor()
+    expect(await list.locator('tbody tr').first().textContent()).toContain('bus collapse, demo')
+    expect(await page.getByRole('progressbar').first().getAttribute('aria-valuenow')).toBe('100')
+    await screenshot(page, 'engineer-replay-list')
+  }, 900_000)
+})
