@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { setupBuiltServer } from '../support/server'
 import { call, signInAs } from '../support/session'
 import { testSql } from '../support/db'
+import { activation, insertOccurrence, insertRule } from '../support/reviewFixtures'
 
 await setupBuiltServer()
 const sql = testSql()
@@ -103,5 +104,28 @@ describe('plant model: sites, units and tags (engineers only, audited, history k
     expect(audit.map(a => a.action)).toEqual(['tag.retire', 'tag.restore'])
     expect(audit[0]!.detail.changed.watched).toEqual({ from: true, to: false })
     expect(await count()).toEqual(before)
+  })
+
+  it('retiring a tag takes its standing alarm out of service, by name; restoring returns it to service', async () => {
+    const [tag] = await sql`select id from tags where code = 'FI-203'`
+    const rule = await insertRule(sql, { unitCode: 'D-200', tagCode: 'FI-203', priority: 'high' })
+    const alarmId = await insertOccurrence(sql, rule, [activation(Date.now() - 60_000)], null)
+    const stateOf = async () => (await sql`select state, closed_at from alarms where id = ${alarmId}`)[0]!
+    expect((await stateOf()).state).toBe('unacknowledged')
+    expect((await call(`/api/tags/${tag!.id}/retire`, { method: 'POST', cookie: engineer })).status).toBe(200)
+    // ISA-18.2 state H: an alarm of equipment out of use is out of service, not standing [common practice].
+    expect((await stateOf()).state).toBe('out_of_service')
+    const [removed] = await sql`select event, comment, user_id from alarm_events where alarm_id = ${alarmId} order by id desc limit 1`
+    expect(removed).toMatchObject({ event: 'remove_from_service', comment: 'tag FI-203 retired' })
+    expect(removed!.user_id).not.toBeNull()
+    const [audit] = await sql`select detail from audit_log where action = 'tag.retire' order by id desc limit 1`
+    expect(audit!.detail.alarmsMoved).toBe(1)
+    expect((await call(`/api/tags/${tag!.id}/restore`, { method: 'POST', cookie: engineer })).status).toBe(200)
+    // Back in service, a condition last seen active is annunciated again (ISA-18.2 on return to
+    // service; shared/alarms/lifecycle.ts) until the watched tag's data say otherwise.
+    expect((await stateOf()).state).toBe('unacknowledged')
+    const events = await sql`select event, comment from alarm_events where alarm_id = ${alarmId} order by id`
+    expect(events.map(e => e.event)).toEqual(['activate', 'remove_from_service', 'return_to_service'])
+    expect(events[2]!.comment).toBe('tag FI-203 restored')
   })
 })

@@ -1,5 +1,6 @@
 import type { H3Event } from 'h3'
 import { idParamsSchema } from '#shared/schemas/fields'
+import { alignAlarmsWithRetirement } from '../alarms/retirementAlarms'
 import { plantHttpError } from './errors'
 import { setSiteRetired } from './sites'
 import { setTagRetired } from './tags'
@@ -15,8 +16,9 @@ const SETTERS = {
 }
 
 /**
- * The six retire/restore routes differ only in what they touch: engineers only, the change and
- * its audit record (before and after) in one transaction, 404 for an unknown id.
+ * The six retire/restore routes differ only in what they touch: engineers only, the change, the
+ * open alarms it takes out of (or back into) service, and its audit record (before and after) in
+ * one transaction, 404 for an unknown id.
  */
 export function plantRetirementRoute(kind: keyof typeof SETTERS, retired: boolean) {
   return defineEventHandler(async (event: H3Event) => {
@@ -25,7 +27,8 @@ export function plantRetirementRoute(kind: keyof typeof SETTERS, retired: boolea
     return useDb().transaction(async (tx) => {
       const result = await SETTERS[kind](tx, id, retired).catch((err) => { throw plantHttpError(err) })
       if (!result) throw createError({ statusCode: 404, message: `${kind[0]!.toUpperCase()}${kind.slice(1)} ${id} not found` })
-      await writeAudit(tx, { userId: user.id, action: `${kind}.${retired ? 'retire' : 'restore'}`, target: result.row.code, detail: { id, changed: result.changed }, address: clientAddress(event) })
+      const alarmsMoved = await alignAlarmsWithRetirement(tx, { kind, id, code: result.row.code }, retired, changeContext(user.id))
+      await writeAudit(tx, { userId: user.id, action: `${kind}.${retired ? 'retire' : 'restore'}`, target: result.row.code, detail: { id, changed: result.changed, alarmsMoved }, address: clientAddress(event) })
       return result.row
     })
   })
