@@ -19,12 +19,16 @@ beforeAll(async () => {
 
 const iso = (ms: number) => new Date(ms).toISOString()
 
-/** Asks for a replay and waits for its job to finish, checking the progress it reports on the way. */
-async function replayToEnd(body: Record<string, unknown>) {
+/** Asks for a replay; answers its id. */
+async function askReplay(body: Record<string, unknown>): Promise<number> {
   const created = await call('/api/replays', { method: 'POST', cookie: engineer, json: body })
   expect(created.status, JSON.stringify(created.body)).toBe(201)
   expect(created.body.advisory).toBe(ADVISORY_CAUTION)
-  const id = created.body.id as number
+  return created.body.id as number
+}
+
+/** Waits for a replay's job to finish, checking the progress it reports on the way. */
+async function waitForReplay(id: number) {
   let last = -1
   // No time limit of its own: the job takes as long as the machine needs, the test's timeout bounds it.
   for (;;) {
@@ -36,6 +40,8 @@ async function replayToEnd(body: Record<string, unknown>) {
     await new Promise(resolve => setTimeout(resolve, 500))
   }
 }
+
+const replayToEnd = async (body: Record<string, unknown>) => waitForReplay(await askReplay(body))
 
 type Firing = { ruleId: number, time: number, change: string }
 const activations = (firings: Firing[]) => firings.filter(f => f.change === 'activate').map(f => ({ ruleId: f.ruleId, ms: Math.round(f.time * 1000) }))
@@ -106,6 +112,20 @@ describe('replay of stored history', () => {
     expect(report.result.leadTimeS).toBeNull()
     const list = await call('/api/replays', { cookie: engineer })
     expect(list.body.replays.map((r: { id: number }) => r.id)).toContain(report.id)
+
+    // Two more queued at once, one with other settings: both wait their turn and finish, and the
+    // other settings are the replay's own. An evaluation falls on every evaluateEvery-th sample
+    // counted from the tag's first (evaluateRecord.ts), so 20 and 40 give ⌊n/20⌋ and ⌊n/40⌋.
+    const settings = (await call(`/api/tags/${tag}/indicator-settings`, { cookie: engineer })).body.current
+    const range = { tagId: tag, from: rows[0]!.time, to: rows.at(-1)!.time }
+    const ids = [await askReplay(range), await askReplay({ ...range, settings: { ...settings, evaluateEvery: 40 } })]
+    const [own, other] = [await waitForReplay(ids[0]!), await waitForReplay(ids[1]!)]
+    expect([own.state, other.state]).toEqual(['done', 'done'])
+    expect([own.alternativeSettings, other.alternativeSettings]).toEqual([false, true])
+    expect(settings.evaluateEvery).toBe(20)
+    expect(own.result.evaluations).toBe(Math.floor(rows.length / 20))
+    expect(other.result.evaluations).toBe(Math.floor(rows.length / 40))
+    expect((await call(`/api/tags/${tag}/indicator-settings`, { cookie: engineer })).body.current.evaluateEvery).toBe(20)
   }, 600_000)
 
   it('refuses bad requests naming the field, and callers without the engineer role', async () => {
