@@ -1,4 +1,4 @@
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs'
+import { mkdtempSync, readFileSync, truncateSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -7,6 +7,7 @@ import { url } from '@nuxt/test-utils/e2e'
 import { setupBuiltServer } from '../support/server'
 import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
 import { testSql } from '../support/db'
+import { MAX_UPLOAD_BYTES } from '../../shared/schemas/upload'
 
 await setupBuiltServer()
 const sql = testSql()
@@ -68,6 +69,27 @@ describe('engineer uploads historian CSV', () => {
       ['TI-401', '2025-08-04T13:00:00.000Z', 38.2, 0],
       ['TI-401', '2025-08-04T13:00:05.000Z', 38.3, 0],
     ])
+    await page.close()
+  })
+
+  it('refuses a file past the import limit on the page, before sending any of it (issue 13 item 6)', async () => {
+    const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'decade-of-history.csv')
+    writeFileSync(file, '')
+    truncateSync(file, MAX_UPLOAD_BYTES + 1) // sparse: one byte over, with no disk used
+    await context.clearCookies()
+    const page = await context.newPage()
+    const sent: string[] = []
+    page.on('request', r => { if (r.url().includes('/api/uploads/')) sent.push(r.url()) })
+    await signInThroughForm(page, 'engineer')
+    await page.goto(url('/upload'))
+    await page.getByLabel('Historian CSV file').setInputFiles(file)
+    const refusal = page.getByRole('alert').filter({ hasText: 'is larger than one import takes' })
+    await refusal.waitFor()
+    expect(await refusal.textContent()).toBe('This file (1024.0 MB) is larger than one import takes: at most 1024.0 MB '
+      + '(1073741824 bytes). Split it into several files; importing them one after another is safe.')
+    expect(await page.getByRole('heading', { name: 'Preview and column mapping' }).count()).toBe(0)
+    expect(sent).toEqual([])
+    await screenshot(page, 'engineer-upload-too-large')
     await page.close()
   })
 
