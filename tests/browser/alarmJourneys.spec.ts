@@ -94,6 +94,10 @@ describe('alarm journeys (issue 12)', () => {
     expect(rows[2]).toMatch(/activated again \(activation 2\).*111 K/)
     expect(rows[3]).toMatch(/acknowledged.*Olu Mensah.*Heater isolated per procedure/)
     await expect(page.getByTestId('alarm-state').textContent()).resolves.toBe('acknowledged')
+    // Every time reads in plant time with its zone, and in UTC on hover (issue 14 item 6).
+    const firstTime = page.getByTestId('alarm-event').first().locator('time').first()
+    expect(await firstTime.textContent()).toMatch(/Europe\/London$/)
+    expect(await firstTime.getAttribute('title')).toMatch(/\d{2}:\d{2}:\d{2} UTC$/)
     await screenshot(page, 'journey-alarm-trail')
     await expectAccessible('alarm page')
     // Older mails linked to /alarms?id=N: they land on the same page.
