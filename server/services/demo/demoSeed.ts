@@ -2,7 +2,8 @@ import { and, eq } from 'drizzle-orm'
 import { CATALOGUE, DEMO_COMPANY, DEMO_SITE } from '#shared/demo/catalogue'
 import { gateways, sites, tags, units, users } from '../../db/schema'
 import type { Role } from '#shared/utils/roles'
-import type { Db } from '../../utils/db'
+import type { Db, DbTransaction } from '../../utils/db'
+import { writeAudit } from '../../utils/audit'
 import { seedDemoAlarmRules } from './demoAlarmRules'
 import { hashIngestKey } from '../ingest/gateways'
 
@@ -21,9 +22,12 @@ export const DEMO_USERS: ReadonlyArray<{ email: string, name: string, role: Role
 export const DEMO_GATEWAY = 'Demo plant simulators'
 
 export async function seedDemo(db: Db, password: string, hash: (p: string) => Promise<string>, simulatorKey?: string): Promise<void> {
-  const passwordHash = await hash(password)
+  // One hash per user, each with a salt of its own: one shared hash would tell anyone who reads
+  // the table that the four accounts share a password.
+  const demoUsers = []
+  for (const u of DEMO_USERS) demoUsers.push({ ...u, passwordHash: await hash(password) })
   await db.transaction(async (tx) => {
-    await tx.insert(users).values(DEMO_USERS.map(u => ({ ...u, passwordHash }))).onConflictDoNothing()
+    await tx.insert(users).values(demoUsers).onConflictDoNothing()
     await tx.insert(sites).values({ code: 'FW', name: DEMO_SITE, company: DEMO_COMPANY, timeZone: 'Europe/London' })
       .onConflictDoNothing()
     const [site] = await tx.select().from(sites).where(eq(sites.code, 'FW'))
@@ -38,11 +42,31 @@ export async function seedDemo(db: Db, password: string, hash: (p: string) => Pr
       }))).onConflictDoNothing()
     }
     await seedDemoAlarmRules(tx, site!.id)
-    // The simulators' key comes from the start command's credentials file; follow it if remade.
-    if (simulatorKey) {
-      const keyFields = { keyHash: hashIngestKey(simulatorKey), keyPrefix: simulatorKey.slice(0, 8), revokedAt: null }
-      await tx.insert(gateways).values({ siteId: site!.id, name: DEMO_GATEWAY, ...keyFields })
-        .onConflictDoUpdate({ target: [gateways.siteId, gateways.name], set: keyFields })
-    }
+    if (simulatorKey) await seedSimulatorGateway(tx, site!.id, simulatorKey)
+  })
+}
+
+/**
+ * The simulators' gateway, keyed from the start command's credentials file. Created once; a key
+ * the file remade is followed, with an audit record, but a gateway an admin revoked stays revoked:
+ * a restart must never undo an admin's decision (the start command then says the simulators are
+ * refused).
+ */
+async function seedSimulatorGateway(tx: DbTransaction, siteId: number, simulatorKey: string): Promise<void> {
+  const keyFields = { keyHash: hashIngestKey(simulatorKey), keyPrefix: simulatorKey.slice(0, 8) }
+  const [existing] = await tx.select().from(gateways).where(and(eq(gateways.siteId, siteId), eq(gateways.name, DEMO_GATEWAY))).for('update')
+  if (!existing) {
+    await tx.insert(gateways).values({ siteId, name: DEMO_GATEWAY, ...keyFields })
+    return
+  }
+  if (existing.revokedAt) {
+    console.warn(`[brinkline] the demo gateway "${DEMO_GATEWAY}" was revoked in the app; the simulators' samples will be refused until an admin issues a key`)
+    return
+  }
+  if (existing.keyHash === keyFields.keyHash) return
+  await tx.update(gateways).set(keyFields).where(eq(gateways.id, existing.id))
+  await writeAudit(tx, {
+    userId: null, action: 'gateway.rekey', target: DEMO_GATEWAY,
+    detail: { id: existing.id, before: { keyPrefix: existing.keyPrefix }, after: { keyPrefix: keyFields.keyPrefix }, reason: 'the start command made a new simulator key' },
   })
 }
