@@ -1,10 +1,11 @@
 // Replays tag rules over stored or simulated samples and evaluation points exactly as the live
-// task does (docs/science.md §S7.3): value rules see every sample, the other measures each
+// task does (docs/science.md §S7.3): value rules see every good sample, the other measures each
 // evaluation point, in time order, through the on-/off-delay condition tracker. The live tick
 // (server/services/pipeline/tagProcessing.ts) feeds the same observations to its stored alarms;
 // the replay job and the detection study count what the rules would have raised.
 import { INACTIVE, stepCondition, type ConditionSettings, type ConditionState } from '../alarms/conditionTracker'
 import type { TagMeasure } from '../alarms/vocabulary'
+import { QUALITY_CODES } from '../utils/sampleQuality'
 import type { EvaluationPoint } from './evaluateRecord'
 import { measureOf } from './ruleMeasure'
 
@@ -31,18 +32,23 @@ export interface RuleObservation {
 
 /**
  * The observations a tick's new samples [firstNew, end) and their evaluation points give a tag's
- * rules, in the live order: each sample to the value rules, then every point up to that sample
- * to the others. `previous` is the newest evaluation before these samples.
+ * rules, in the live order: each good sample to the value rules, then every point up to that
+ * sample to the others. `qualities` are the samples' stored codes: an uncertain sample still
+ * counts in the indicator windows (docs/science.md §S2.1) but is no observation for a value rule,
+ * so instrument trouble never raises or clears a limit alarm (the loaders already leave bad ones
+ * out). `previous` is the newest evaluation before these samples.
  */
 export function* tagObservations(
-  times: ArrayLike<number>, values: ArrayLike<number>, firstNew: number, points: readonly EvaluationPoint[],
-  measures: readonly TagMeasure[], previous: EvaluationPoint | null,
+  times: ArrayLike<number>, values: ArrayLike<number>, qualities: ArrayLike<number>, firstNew: number,
+  points: readonly EvaluationPoint[], measures: readonly TagMeasure[], previous: EvaluationPoint | null,
 ): Generator<RuleObservation> {
   let next = 0
   let current = previous
   for (let i = firstNew; i < times.length; i++) {
-    for (let r = 0; r < measures.length; r++) {
-      if (measures[r] === 'value') yield { rule: r, time: times[i]!, value: values[i]!, current }
+    if (qualities[i] === QUALITY_CODES.good) {
+      for (let r = 0; r < measures.length; r++) {
+        if (measures[r] === 'value') yield { rule: r, time: times[i]!, value: values[i]!, current }
+      }
     }
     while (next < points.length && points[next]!.time <= times[i]!) {
       current = points[next++]!

@@ -6,7 +6,7 @@ import { OpcuaPlantServer, type PlantQuality } from '../../simulators/lib/opcuaP
 import { testSql } from '../support/db'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
 import { eventually, freeLoopbackPort } from '../support/opcua'
-import { createTestTag, waitForDemoSite } from '../support/pipeline'
+import { createTestTag, runServerTask, waitForDemoSite } from '../support/pipeline'
 import { setupBuiltServer } from '../support/server'
 
 // Issue 17 item 2: a real node-opcua server on loopback, in this process, feeds the collector of
@@ -15,7 +15,8 @@ import { setupBuiltServer } from '../support/server'
 // and the server's own request log shows the client sent no Write, Call or node management (Part 4
 // §5.8, §5.10.4, §5.11).
 const pki = mkdtempSync(join(tmpdir(), 'brinkline-opcua-test-'))
-const TAGS = ['OP-101', 'OP-102']
+// OP-103 carries a high-limit rule for the check that Bad and Uncertain values never alarm.
+const TAGS = ['OP-101', 'OP-102', 'OP-103']
 const plant = new OpcuaPlantServer({
   port: await freeLoopbackPort(),
   pkiDir: join(pki, 'plant'),
@@ -40,9 +41,9 @@ afterAll(async () => {
 const T0 = Date.now() - 3_600_000
 let next = 0
 const published: { tag: string, timeMs: number, value: number, quality: PlantQuality }[] = []
-function publish(tag: string, quality: PlantQuality = 'good') {
+function publish(tag: string, quality: PlantQuality = 'good', value?: number) {
   const i = next++
-  const reading = { tag, timeMs: T0 + 1000 * i, value: 300 + (i % 17) / 4, quality }
+  const reading = { tag, timeMs: T0 + 1000 * i, value: value ?? 300 + (i % 17) / 4, quality }
   published.push(reading)
   plant.publish(tag, reading.value, reading.timeMs, quality)
 }
@@ -103,6 +104,32 @@ describe('OPC UA collector', { timeout: 400_000 }, () => {
     const rows = await storedAll('OP-101', expectedOf('OP-101').length)
     expect(rows.map(r => r.quality)).toEqual(expectedOf('OP-101').map(p => QUALITY[p.quality]))
     expect(rows.slice(-3).map(r => r.quality)).toEqual([2, 1, 0])
+  })
+
+  it('raises no alarm on Bad or Uncertain values far past a limit, and does on a Good one', async () => {
+    // IEC 62541-4 §7.39: Bad means the value is not usable, Uncertain that it is of doubtful use;
+    // an alarm on either would be a nuisance alarm on instrument trouble (EEMUA 191 [common practice]).
+    const [rule] = await sql`
+      insert into alarm_rules (site_id, target_kind, tag_id, unit_id, name, measure, comparison, threshold, priority, class, consequence, likely_cause, operator_action)
+      select t.site_id, 'tag', t.id, t.unit_id, 'OP-103 high', 'value', 'above', 500, 'high', 'alarm', 'Test consequence.', 'Test cause.', 'Test action.'
+      from tags t where t.code = 'OP-103' returning id`
+    const alarmsOfRule = async () => (await sql`select count(*)::int as n from alarms where rule_id = ${rule!.id}`)[0]!.n as number
+    for (let k = 0; k < 3; k++) {
+      publish('OP-103', 'bad', 950)
+      publish('OP-103', 'uncertain', 950)
+    }
+    const rows = await storedAll('OP-103', expectedOf('OP-103').length)
+    expect(rows.slice(-6).map(r => [r.value, r.quality])).toEqual([[950, 2], [950, 1], [950, 2], [950, 1], [950, 2], [950, 1]])
+    await runServerTask('indicators:refresh')
+    // The tick did reach those samples (its claim moved to the newest of them), and raised nothing.
+    const [claim] = await sql`select s.last_sample_time from tag_analysis_state s join tags t on t.id = s.tag_id where t.code = 'OP-103'`
+    expect(claim?.last_sample_time?.getTime()).toBe(Math.max(...expectedOf('OP-103').map(p => p.timeMs)))
+    expect(await alarmsOfRule()).toBe(0)
+    // The same value with Good status does alarm, so the rule could have raised above.
+    publish('OP-103', 'good', 950)
+    await storedAll('OP-103', expectedOf('OP-103').length)
+    await runServerTask('indicators:refresh')
+    expect(await alarmsOfRule()).toBe(1)
   })
 
   it('loses no value across a server restart: the gap comes back from the server history', async () => {

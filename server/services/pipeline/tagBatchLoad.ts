@@ -26,6 +26,8 @@ export interface TagClaim {
 export interface TagRecord extends TagClaim {
   t: Float64Array
   v: Float64Array
+  /** Each sample's stored quality code (good or uncertain: bad ones are not loaded). */
+  q: Uint8Array
   newCount: number
 }
 
@@ -65,15 +67,18 @@ export async function loadRecords(tx: DbTransaction, claims: TagClaim[], horizon
   return claims.map((c) => {
     const before = history.get(c.tag.id) ?? NO_SAMPLES
     const after = fresh.get(c.tag.id) ?? NO_SAMPLES
-    return { ...c, t: joined(before.t, after.t), v: joined(before.v, after.v), newCount: after.t.length }
+    return {
+      ...c, t: joined(Float64Array, before.t, after.t), v: joined(Float64Array, before.v, after.v),
+      q: joined(Uint8Array, before.q, after.q), newCount: after.t.length,
+    }
   })
 }
 
-interface SampleArrays { t: number[], v: number[] }
-const NO_SAMPLES: SampleArrays = { t: [], v: [] }
+interface SampleArrays { t: number[], v: number[], q: number[] }
+const NO_SAMPLES: SampleArrays = { t: [], v: [], q: [] }
 
-function joined(first: number[], second: number[]): Float64Array {
-  const out = new Float64Array(first.length + second.length)
+function joined<A extends Float64Array | Uint8Array>(Kind: new (length: number) => A, first: number[], second: number[]): A {
+  const out = new Kind(first.length + second.length)
   out.set(first)
   out.set(second, first.length)
   return out
@@ -88,17 +93,18 @@ interface SampleWindow { tagId: number, after: Date | null, until: Date | null, 
  */
 async function sampleWindows(tx: DbTransaction, end: 'oldest' | 'newest', windows: SampleWindow[]): Promise<Map<number, SampleArrays>> {
   if (windows.length === 0) return new Map()
-  const rows = await tx.execute<{ tag_id: number, t: number[] | null, v: number[] | null }>(sql`
-    select c.tag_id, s.t, s.v
+  const rows = await tx.execute<{ tag_id: number, t: number[] | null, v: number[] | null, q: number[] | null }>(sql`
+    select c.tag_id, s.t, s.v, s.q
     from jsonb_to_recordset(${jsonParam(windows.map(w => ({
       tag_id: w.tagId, after: w.after?.toISOString() ?? '-infinity', until: w.until?.toISOString() ?? 'infinity', n: w.limit,
     })))}) as c(tag_id int, after timestamptz, until timestamptz, n int)
     cross join lateral (
-      select array_agg(extract(epoch from w.time)::float8 order by w.time) as t, array_agg(w.value order by w.time) as v
-      from (select time, value from samples
+      select array_agg(extract(epoch from w.time)::float8 order by w.time) as t, array_agg(w.value order by w.time) as v,
+        array_agg(w.quality order by w.time) as q
+      from (select time, value, quality from samples
         where tag_id = c.tag_id and time > c.after and time <= c.until and quality < 2
         order by time ${sql.raw(end === 'oldest' ? 'asc' : 'desc')} limit c.n) w) s`)
-  return new Map(rows.map(r => [Number(r.tag_id), { t: (r.t ?? []).map(Number), v: (r.v ?? []).map(Number) }]))
+  return new Map(rows.map(r => [Number(r.tag_id), { t: (r.t ?? []).map(Number), v: (r.v ?? []).map(Number), q: (r.q ?? []).map(Number) }]))
 }
 
 export type StoredPointRow = {

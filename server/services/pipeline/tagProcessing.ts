@@ -84,6 +84,6 @@ async function runRules(tx: DbTransaction, evaluated: EvaluatedTag[], ctx: Chang
 }
 
 async function replayTag(tx: DbTransaction, e: EvaluatedTag, runtimes: RuleRuntime[], ctx: ChangeContext): Promise<void> {
-  const observations = tagObservations(e.t, e.v, e.t.length - e.newCount, e.points, runtimes.map(rt => rt.rule.measure), e.previous)
+  const observations = tagObservations(e.t, e.v, e.q, e.t.length - e.newCount, e.points, runtimes.map(rt => rt.rule.measure), e.previous)
   for (const o of observations) await observe(tx, runtimes[o.rule]!, o.time, o.value, () => alarmContext(o.current), ctx)
 }

@@ -57,7 +57,7 @@ async function evaluateReplay(db: Db, replay: ReplayRow): Promise<ReplayResult> 
   const { settings, rules } = replay
   const period = tag.samplePeriodS
   const loaded = await loadReplaySamples(db, replay, historySamples(settings, period))
-  const { times, values, first } = loaded
+  const { times, values, qualities, first } = loaded
   const total = times.length - first
   await db.update(replays).set({ samplesTotal: total }).where(eq(replays.id, replay.id))
   // Evaluations fall on every evaluateEvery-th good sample the tag ever had, as in the live task.
@@ -72,11 +72,12 @@ async function evaluateReplay(db: Db, replay: ReplayRow): Promise<ReplayResult> 
     const start = Math.max(0, from - historySamples(settings, period))
     const t = times.subarray(start, to)
     const v = values.subarray(start, to)
+    const q = qualities.subarray(start, to)
     const [evaluation] = await evaluateRecords([{
       tagId: replay.tagId, times: t, values: v, firstNew: from - start, samplesSinceEvaluation: counter, samplePeriodS: period, settings,
     }])
     counter = evaluation!.samplesSinceEvaluation
-    const changes = replayConditions(rules, states, tagObservations(t, v, from - start, evaluation!.points, measures, previous))
+    const changes = replayConditions(rules, states, tagObservations(t, v, q, from - start, evaluation!.points, measures, previous))
     for (const c of changes) firings.push({ ruleId: rules[c.rule]!.id, time: c.time, value: finiteOrNull(c.value), change: c.change })
     previous = evaluation!.points.at(-1) ?? previous
     points.push(...evaluation!.points)
@@ -109,16 +110,17 @@ async function loadReplaySamples(db: Db, replay: ReplayRow, history: number) {
   if (counted!.inside > MAX_REPLAY_SAMPLES)
     throw new ReplayRefused(`the range holds ${counted!.inside} good samples; a replay evaluates at most ${MAX_REPLAY_SAMPLES}: choose a shorter range`)
   const rows = await db.$sql`
-    (select extract(epoch from time)::float8 as t, value from samples
+    (select extract(epoch from time)::float8 as t, value, quality from samples
       where tag_id = ${replay.tagId} and time < ${from}::timestamptz and quality < 2 order by time desc limit ${history})
     union all
-    (select extract(epoch from time)::float8 as t, value from samples
+    (select extract(epoch from time)::float8 as t, value, quality from samples
       where tag_id = ${replay.tagId} and time >= ${from}::timestamptz and time <= ${to}::timestamptz and quality < 2)
     order by t`.values()
   const times = Float64Array.from(rows, r => Number(r[0]))
   const values = Float64Array.from(rows, r => Number(r[1]))
+  const qualities = Uint8Array.from(rows, r => Number(r[2]))
   const first = times.findIndex(t => t >= seconds(replay.fromTime))
-  return { times, values, first: first < 0 ? times.length : first, samplesBefore: counted!.before }
+  return { times, values, qualities, first: first < 0 ? times.length : first, samplesBefore: counted!.before }
 }
 
 function replayChart(

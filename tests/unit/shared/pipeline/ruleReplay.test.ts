@@ -13,13 +13,24 @@ describe('tagObservations', () => {
     const times = [0, 10, 20, 30]
     const values = [1, 2, 3, 4]
     const points = [point(20, 0.5), point(30, 0.9)]
-    const seen = [...tagObservations(times, values, 1, points, ['value', 'ar1'], point(0, 0.1))]
+    const seen = [...tagObservations(times, values, [0, 0, 0, 0], 1, points, ['value', 'ar1'], point(0, 0.1))]
       .map(o => [o.rule, o.time, o.value, o.current?.time ?? null])
     expect(seen).toEqual([
       [0, 10, 2, 0], // the sample before firstNew is history only
       [0, 20, 3, 0], [1, 20, 0.5, 20],
       [0, 30, 4, 20], [1, 30, 0.9, 30],
     ])
+  })
+})
+
+describe('tagObservations and sample quality', () => {
+  it('gives value rules no observation from an uncertain sample, while the indicator points still flow', () => {
+    // Uncertain status (IEC 62541-4 §7.39; quality code 1) is instrument doubt, not a process state:
+    // it must neither raise nor clear a limit alarm (docs/science.md §S7.3).
+    const points = [point(20, 0.5)]
+    const seen = [...tagObservations([0, 10, 20], [1, 99, 3], [0, 1, 0], 0, points, ['value', 'ar1'], null)]
+      .map(o => [o.rule, o.time, o.value])
+    expect(seen).toEqual([[0, 0, 1], [0, 20, 3], [1, 20, 0.5]])
   })
 })
 
