@@ -5,7 +5,9 @@
 // slides, the on-delay) on the same looks. The records are the detection study's simulations
 // (scripts/bench/detectionStudy/recordSets.ts) drawn from seed indices the benchmark never
 // scores, so what is tuned here is measured there on fresh seeds.
-//   npx tsx scripts/calibrateEarlyWarning.ts    (SHORT=150 LONG=8 records per set; GRID=α:budget:onDelay,…)
+//   npx tsx scripts/calibrateEarlyWarning.ts    (SHORT=150 LONG=8 records per set; GRID=α:budget:onDelay,…;
+//   SAMPLES=900 makes the short records that long: their nulls are also scored on their first
+//   460, 600 and 750 samples, since a look only reads data up to its own time)
 import { existsSync, readFileSync, writeFileSync } from 'node:fs'
 import { INACTIVE, stepCondition } from '../shared/alarms/conditionTracker'
 import { evaluateRecord } from '../shared/pipeline/evaluateRecord'
@@ -16,6 +18,9 @@ import { wilson } from './bench/detectionStudy/stats'
 const env = (name: string, fallback: number) => (process.env[name] === undefined ? fallback : Number(process.env[name]))
 const SHORT = env('SHORT', 150)
 const LONG = env('LONG', 8)
+const SAMPLES = env('SAMPLES', 500)
+/** Prefix lengths at which short null records are also scored (those shorter than the record). */
+const PREFIXES = [460, 600, 750].filter(n => n < SAMPLES)
 /** The benchmark scores indices 0–99 of every set; calibration starts well past them. */
 const FIRST_INDEX = 1_000
 const DAY_S = 86_400
@@ -90,7 +95,7 @@ function collect(): Group[] {
   let done = 0
   const counts = {
     forcedShort: SHORT, modelNullShort: SHORT, nullShort: SHORT, forcedLong: LONG, modelNullLong: LONG, nullLong: LONG,
-    longNullKinds: 'all' as const,
+    longNullKinds: 'all' as const, shortSamples: SAMPLES,
   }
   for (const record of studyRecords(counts, FIRST_INDEX)) {
     const key = `${record.group}|${record.forced}|${record.length}`
@@ -118,7 +123,7 @@ function report(groups: readonly Group[], candidate: Candidate): void {
     const windows = g.samples / settings.trendWindowSamples
     const rate = g.length === 'long' && !g.forced
       ? `  ${(1000 * total / (g.samples / DAY_S)).toFixed(0)} per 1,000 tag-days at 1 s, ${(total / windows / slidingAlpha).toFixed(1)} per window per α`
-      : ''
+      : g.forced ? '' : PREFIXES.map(n => `  by ${n}: ${pct(perRecord.filter(r => r.some(t => t < n)).length, perRecord.length)}`).join('')
     console.log(`  ${(g.forced ? 'FORCED ' : 'null   ') + g.name.padEnd(34)} ${g.length.padEnd(5)} ${pct(alerted, perRecord.length)}${rate}`)
   }
 }

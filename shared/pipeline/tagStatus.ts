@@ -8,7 +8,7 @@ import { NO_DATA_PERIODS } from '../utils/tileStatus'
 import { number } from '../notifications/format'
 
 /**
- * A stability-trend p at or below this puts the tag on watch before it is significant (α 0.004 or less).
+ * A stability-trend p at or below this puts the tag on watch before it is significant (α 0.0025 or less).
  * A calibrated p is at most 0.1 on a tenth of a steady tag's looks, so 0.1 kept steady tags on watch.
  */
 export const WATCH_P = 0.01

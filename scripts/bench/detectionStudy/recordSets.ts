@@ -46,6 +46,8 @@ export interface SetCounts {
   nullLong: number
   /** Which AR(1)-based null kinds get long streams (each costs ~10 CPU-seconds). */
   longNullKinds: 'all' | readonly string[]
+  /** Samples per short record, when not RECORD_SAMPLES.short (the calibration also tries longer ones). */
+  shortSamples?: number
 }
 
 /** A record's seed from its set and index (multiplicative hashing keeps the sets apart). */
@@ -61,7 +63,7 @@ export function* studyRecords(counts: SetCounts, firstIndex = 0): Generator<Stud
   let id = 1
   let set = 0
   for (const length of ['short', 'long'] as const) {
-    const samples = RECORD_SAMPLES[length]
+    const samples = length === 'short' ? counts.shortSamples ?? RECORD_SAMPLES.short : RECORD_SAMPLES.long
     const forcedRuns = length === 'short' ? counts.forcedShort : counts.forcedLong
     const modelNullRuns = length === 'short' ? counts.modelNullShort : counts.modelNullLong
     const nullRuns = length === 'short' ? counts.nullShort : counts.nullLong
