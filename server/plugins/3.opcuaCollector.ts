@@ -2,13 +2,13 @@ import { join } from 'node:path'
 import { ensureMigrated } from './0.migrate'
 import { OpcuaSupervisor } from '../services/opcua/supervisor'
 
-// The OPC UA collector runs in every server instance (each connection is owned by one of them).
-// Under NODE_ENV=test it is off, so test files that do not read OPC UA never start clients; the
-// OPC UA tests switch it on with BRINKLINE_OPCUA_COLLECTOR=1. BRINKLINE_OPCUA_COLLECTOR=0 turns
-// it off anywhere (an instance that should only answer requests).
+// The OPC UA collector runs in every server instance (each connection is owned by one of them)
+// unless BRINKLINE_OPCUA_COLLECTOR=0 (server/utils/backgroundWorkers.ts).
 export default defineNitroPlugin((nitroApp) => {
-  const flag = process.env.BRINKLINE_OPCUA_COLLECTOR
-  if (flag === '0' || (process.env.NODE_ENV === 'test' && flag !== '1')) return
+  if (!backgroundWorkerOn('BRINKLINE_OPCUA_COLLECTOR')) {
+    console.log('[opcua] collector off (BRINKLINE_OPCUA_COLLECTOR=0)')
+    return
+  }
   const supervisor = new OpcuaSupervisor(useDb(), {
     pollMs: Number(process.env.BRINKLINE_OPCUA_POLL_MS ?? 5_000),
     maxBackoffMs: Number(process.env.BRINKLINE_OPCUA_MAX_BACKOFF_MS ?? 30_000),
@@ -16,5 +16,6 @@ export default defineNitroPlugin((nitroApp) => {
     ready: ensureMigrated,
   })
   supervisor.start()
+  console.log('[opcua] collector started')
   nitroApp.hooks.hook('close', () => supervisor.stop())
 })

@@ -5,13 +5,13 @@ import { startReplayWorker, stopReplayQueue } from '../services/replay/replayQue
 /** While the database is down at start-up, try the queue again this often. */
 const RETRY_MS = 10_000
 
-// Every server instance works replay jobs, one at a time. Under NODE_ENV=test it is off, so test
-// files that do not replay never start a queue client; the replay tests switch it on with
-// BRINKLINE_REPLAY_WORKER=1. BRINKLINE_REPLAY_WORKER=0 turns it off anywhere (an instance that
-// should only answer requests still queues replays for the others).
+// Every server instance works replay jobs, one at a time, unless BRINKLINE_REPLAY_WORKER=0
+// (server/utils/backgroundWorkers.ts): such an instance still queues replays for the others.
 export default defineNitroPlugin((nitroApp) => {
-  const flag = process.env.BRINKLINE_REPLAY_WORKER
-  if (flag === '0' || (process.env.NODE_ENV === 'test' && flag !== '1')) return
+  if (!backgroundWorkerOn('BRINKLINE_REPLAY_WORKER')) {
+    console.log('[replay] worker off (BRINKLINE_REPLAY_WORKER=0)')
+    return
+  }
   let stopped = false
   let timer: ReturnType<typeof setTimeout> | undefined
   const start = () => {

@@ -26,9 +26,16 @@ async function createFileDatabase(): Promise<string> {
 }
 
 /**
+ * Background workers a test server runs only when its test asks (`'1'`): a file that neither reads
+ * OPC UA nor replays starts no OPC UA client or queue client (server/utils/backgroundWorkers.ts).
+ */
+const WORKERS_OFF = { BRINKLINE_OPCUA_COLLECTOR: '0', BRINKLINE_REPLAY_WORKER: '0' }
+
+/**
  * Starts the one build (made by scripts/test.sh) against a fresh database. @nuxt/test-utils runs
- * it with NODE_ENV=test, so Nitro's scheduler stays off: tests drive the tasks through the
- * test-only task route, and a test that needs the real scheduler passes NODE_ENV=production.
+ * it with NODE_ENV=production (its own default), so the server cannot tell it is under test:
+ * tests that drive the tasks through the test-only task route switch the schedules off
+ * (MANUAL_TICKS_ENV), and the background workers are off unless asked for (WORKERS_OFF).
  */
 export async function setupBuiltServer(env: Record<string, string> = {}, options: { port?: number } = {}) {
   const databaseUrl = await createFileDatabase()
@@ -37,7 +44,7 @@ export async function setupBuiltServer(env: Record<string, string> = {}, options
     build: false,
     server: true,
     nuxtConfig: { nitro: { output: { dir: `${ROOT}/.output` } } },
-    env: { NUXT_DATABASE_URL: databaseUrl, ...env },
+    env: { NUXT_DATABASE_URL: databaseUrl, ...WORKERS_OFF, ...env },
     setupTimeout: 180_000,
     ...options,
   })
