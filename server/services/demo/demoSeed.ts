@@ -24,7 +24,7 @@ export const DEMO_GATEWAY = 'Demo plant simulators'
 export async function seedDemo(db: Db, password: string, hash: (p: string) => Promise<string>, simulatorKey?: string): Promise<void> {
   // One hash per user, each with a salt of its own: one shared hash would tell anyone who reads
   // the table that the four accounts share a password.
-  const demoUsers = []
+  const demoUsers: (typeof DEMO_USERS[number] & { passwordHash: string })[] = []
   for (const u of DEMO_USERS) demoUsers.push({ ...u, passwordHash: await hash(password) })
   await db.transaction(async (tx) => {
     await tx.insert(users).values(demoUsers).onConflictDoNothing()
