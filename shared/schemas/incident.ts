@@ -54,3 +54,17 @@ export const reviewSettingsSchema = z.object({
   incidentWindowS: z.number({ required_error: 'is required', invalid_type_error: 'must be a number of seconds' })
     .int('must be whole seconds').min(60, 'must be at least 60').max(MAX_INCIDENT_WINDOW_S, `must be at most ${MAX_INCIDENT_WINDOW_S}`),
 })
+
+/** Tags charted on one incident timeline at most: the response stays bounded (each tag ≤ 1,000 buckets). */
+export const INCIDENT_TIMELINE_MAX_TAGS = 4
+
+/** `?tags=3,7`: the unit's tags to chart (default: the ones the incident's alarms watch). */
+export const incidentTimelineQuerySchema = z.object({
+  tags: z.preprocess(
+    v => (typeof v === 'string' ? (v.trim() === '' ? [] : v.split(',').map(s => s.trim())) : v),
+    z.array(dbId('tag'), { invalid_type_error: 'must be a comma-separated list of tag ids' })
+      .max(INCIDENT_TIMELINE_MAX_TAGS, `must name at most ${INCIDENT_TIMELINE_MAX_TAGS} tags`)
+      .refine(ids => new Set(ids).size === ids.length, 'must not repeat a tag'),
+  ).optional(),
+})
+export type IncidentTimelineQuery = z.infer<typeof incidentTimelineQuerySchema>

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ADVISORY_CAUTION } from '../../shared/alarms/vocabulary'
 import { testSql } from '../support/db'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
-import { tick, waitForDemoSite } from '../support/pipeline'
+import { createTestTag, ingestAll, tick, waitForDemoSite } from '../support/pipeline'
 import { activation, insertOccurrence, insertRule, oneShot } from '../support/reviewFixtures'
 import { setupBuiltServer } from '../support/server'
 import { call, signInAs } from '../support/session'
@@ -211,5 +211,90 @@ describe('the incident on one time axis, and its events as CSV', () => {
     // RFC 4180 quoting of the comma, and the formula guard (OWASP CSV injection) on the leading '='.
     expect(lines[4]).toContain(`"'=seen, level checked"`)
     expect((await call(`/api/incidents/${incidentId}/events.csv`)).status).toBe(401)
+  })
+
+  it('charts each tag\'s variance, recovery rate and stored judgement on the axis; any of the unit\'s tags, at most four, bounded', async () => {
+    const t = T0 + 4000 * MIN
+    const period = 10
+    // Unwatched test tags, so the tick writes no indicator points of its own over ours.
+    const watchedId = await createTestTag(sql, 'TT-961', 'T-400', period)
+    const otherId = await createTestTag(sql, 'TT-962', 'T-400', period)
+    await sql`update tags set watched = false where id in (${watchedId}, ${otherId})`
+    // A square wave of period 6 samples, ±a about 380: variance a², lag-1 autocorrelation 1 − 4/6 = 1/3
+    // (a periodic square wave's autocorrelation is a triangle [from memory]), so the recovery rate
+    // −ln(ρ₁)/Δt = ln 3 / 10 s (k = −ln φ/Δ, docs/science.md "Recovery rate").
+    const a = 0.5
+    await ingestAll(Array.from({ length: 720 }, (_, i) => ({
+      tag: 'TT-961', time: new Date(t - 90 * MIN + i * period * 1000).toISOString(), value: 380 + (i % 6 < 3 ? a : -a),
+    })))
+    // Stored evaluations every 2 min from 40 min before to 20 min after; "slowing down" from −10 to +4 min.
+    const evaluations = Array.from({ length: 31 }, (_, k) => {
+      const at = t - 40 * MIN + k * 2 * MIN
+      const slowing = at >= t - 10 * MIN && at <= t + 4 * MIN
+      return { at, evidence: slowing ? 'slowing down' : 'no trend', p: slowing ? 0.01 + k / 1000 : 0.4 + k / 100 }
+    })
+    for (const e of evaluations)
+      await sql`insert into indicator_points (tag_id, time, evidence, p_ar1) values (${watchedId}, ${new Date(e.at).toISOString()}::timestamptz, ${e.evidence}, ${e.p})`
+    // 2,500 evaluations a second apart on the other tag, 100 of them "slowing down": more than the route returns.
+    const many = Array.from({ length: 2500 }, (_, k) => ({ at: t - 29 * MIN + k * 1000, evidence: k >= 1000 && k < 1100 ? 'slowing down' : 'no trend', p: (k % 97) / 97 }))
+    await sql`insert into indicator_points ${sql(many.map(e => ({ tag_id: otherId, time: new Date(e.at), evidence: e.evidence, p_ar1: e.p })))}`
+    const alarmId = await oneShot(sql, await insertRule(sql, { unitCode: 'T-400', tagCode: 'TT-961', priority: 'medium', name: 'Timeline fixture square wave' }), t)
+    await tick()
+    const incidentId = await incidentOf(alarmId)
+    const res = await call(`/api/incidents/${incidentId}/timeline`, { cookie: operator })
+    expect(res.status).toBe(200)
+    const from = t - 30 * MIN
+    const to = t + 1000 + 15 * MIN
+    expect(res.body.span).toEqual({ from: new Date(from).toISOString(), to: new Date(to).toISOString() })
+
+    // Every tag of the unit is offered, the alarm's tag first; by default only it is charted.
+    const unitTags = (await sql`select t.id from tags t join units u on u.id = t.unit_id where u.code = 'T-400'`).map(r => Number(r.id))
+    const choices = res.body.tagChoices as { id: number, watchedByAlarm: boolean }[]
+    expect(choices.map(c => c.id).sort((x, y) => x - y)).toEqual(unitTags.sort((x, y) => x - y))
+    expect(choices[0]).toMatchObject({ id: watchedId, watchedByAlarm: true })
+    expect(res.body.series.map((s: { tag: { id: number } }) => s.tag.id)).toEqual([watchedId])
+
+    // Variance and recovery rate over the span, against the square wave's (the local-linear trend
+    // takes a little of the variance: within 10 %; the rate within 3 %).
+    const series = res.body.series[0] as { time: number[], variance: (number | null)[], recoveryRate: (number | null)[] }
+    const inSpan = (values: (number | null)[]) => values.filter((v, i): v is number => v !== null && series.time[i]! * 1000 >= from && series.time[i]! * 1000 <= to)
+    const variance = inSpan(series.variance)
+    const rate = inSpan(series.recoveryRate)
+    expect(variance.length).toBeGreaterThan(100)
+    expect(rate.length).toBeGreaterThan(100)
+    for (const v of variance) expect(Math.abs(v / (a * a) - 1)).toBeLessThan(0.1)
+    for (const k of rate) expect(Math.abs(k / (Math.log(3) / period) - 1)).toBeLessThan(0.03)
+
+    // The judgement strip: exactly the stored evaluations inside the span, in order.
+    const strip = res.body.judgement.find((j: { tagId: number }) => j.tagId === watchedId)
+    const expected = evaluations.filter(e => e.at >= from && e.at <= to)
+    expect(strip.time).toEqual(expected.map(e => e.at / 1000))
+    expect(strip.evidence).toEqual(expected.map(e => e.evidence))
+    expect(strip.p).toEqual(expected.map(e => e.p))
+    expect(strip.thinned).toBe(false)
+
+    // A tag no alarm watches, picked: charted first as asked; its 2,500 evaluations thinned to about
+    // a thousand, with the "slowing down" run still starting and ending where it did.
+    const picked = await call(`/api/incidents/${incidentId}/timeline?tags=${otherId},${watchedId}`, { cookie: operator })
+    expect(picked.status).toBe(200)
+    expect(picked.body.series.map((s: { tag: { id: number } }) => s.tag.id)).toEqual([otherId, watchedId])
+    const thin = picked.body.judgement.find((j: { tagId: number }) => j.tagId === otherId) as { time: number[], evidence: string[], p: number[], thinned: boolean }
+    expect(thin.thinned).toBe(true)
+    expect(thin.time.length).toBeLessThanOrEqual(1004)
+    expect(thin.time.length).toBeGreaterThan(800)
+    const slowTimes = thin.time.filter((_, i) => thin.evidence[i] === 'slowing down')
+    expect(Math.min(...slowTimes)).toBe(many[1000]!.at / 1000)
+    expect(Math.max(...slowTimes)).toBe(many[1099]!.at / 1000)
+    const byTime = new Map(many.map(e => [e.at / 1000, e]))
+    thin.time.forEach((time, i) => expect([thin.evidence[i], thin.p[i]]).toEqual([byTime.get(time)!.evidence, byTime.get(time)!.p]))
+
+    // Bad picks: 400 naming the field.
+    const otherUnitTag = Number((await sql`select t.id from tags t join units u on u.id = t.unit_id where u.code = 'D-200' limit 1`)[0]!.id)
+    const fiveTags = unitTags.length >= 5 ? unitTags.slice(0, 5) : [...unitTags, ...Array.from({ length: 5 - unitTags.length }, (_, i) => 900_000 + i)]
+    for (const tags of ['abc', fiveTags.join(','), `${watchedId},${watchedId}`, String(otherUnitTag)]) {
+      const bad = await call(`/api/incidents/${incidentId}/timeline?tags=${tags}`, { cookie: operator })
+      expect(bad.status, tags).toBe(400)
+      expect(bad.body.message, tags).toContain('tags')
+    }
   })
 })

@@ -91,7 +91,7 @@ export async function readTagSeriesBetween(db: Db, tagId: number, from: number, 
     from,
     to,
     latest: times.length ? { time: times[times.length - 1]!, value: values[values.length - 1]! } : null,
-    settings: { windowSamples: settings.window.samples, windowSeconds: settings.windowSeconds, detrend: settings.detrend, fromTag: tag.stored !== null },
+    settings: { windowSamples: settings.window.samples, windowSeconds: settings.windowSeconds, detrend: settings.detrend, alpha: settings.live.alpha, fromTag: tag.stored !== null },
     ...view,
     ...rules,
   }

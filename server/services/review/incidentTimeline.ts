@@ -1,15 +1,17 @@
+import { INCIDENT_TIMELINE_MAX_TAGS } from '#shared/schemas/incident'
 import type { TimelineEntry } from '#shared/utils/incidentEventsCsv'
 import type { Db } from '../../utils/db'
 import { readTagSeriesBetween } from '../reads/tagSeriesRead'
+import { judgementStrip } from './incidentJudgement'
 import { incidentDetail } from './incidentReads'
+import { ReviewInputError } from './reviewErrors'
 
 const MIN_MS = 60_000
 /** Lead-in before the first alarm (the approach) and run-out after the last event. */
 const BEFORE_MS = 30 * MIN_MS
 const AFTER_MS = 15 * MIN_MS
-/** At most a week on one axis; tags charted at most four (the ones the alarms watch). */
+/** At most a week on one axis. */
 const MAX_SPAN_MS = 7 * 24 * 60 * MIN_MS
-const MAX_TAGS = 4
 
 type EventRow = {
   alarmId: string, at: string, event: string, fromState: string | null, toState: string, actor: string, userName: string | null,
@@ -57,12 +59,34 @@ async function notesAbout(db: Db, incident: { id: number, siteId: number, unitId
   }))
 }
 
+export interface TimelineTagChoice { id: number, code: string, description: string, watchedByAlarm: boolean, retired: boolean }
+
+/** Every tag of the incident's unit (and any other tag its alarms watch), those the alarms watch first. */
+async function tagChoices(db: Db, unitId: number, alarmTagIds: number[]): Promise<TimelineTagChoice[]> {
+  const rows = await db.$sql<{ id: number, code: string, description: string, retired: boolean }[]>`
+    select id, code, description, retired_at is not null as retired from tags
+    where unit_id = ${unitId} or id = any(${db.$sql.array(alarmTagIds)}::int[]) order by code, id`
+  const watched = new Set(alarmTagIds)
+  const choices = rows.map(r => ({ ...r, id: Number(r.id), watchedByAlarm: watched.has(Number(r.id)) }))
+  return [...choices.filter(c => c.watchedByAlarm), ...choices.filter(c => !c.watchedByAlarm)]
+}
+
+/** The tags asked for (each must be a choice), else the first ones the alarms watch. */
+function chartedTags(choices: TimelineTagChoice[], asked: number[] | undefined): number[] {
+  if (asked === undefined) return choices.filter(c => c.watchedByAlarm).slice(0, INCIDENT_TIMELINE_MAX_TAGS).map(c => c.id)
+  const known = new Set(choices.map(c => c.id))
+  const unknown = asked.find(t => !known.has(t))
+  if (unknown !== undefined) throw new ReviewInputError('tags', 400, `tag ${unknown} is not a tag of the incident's unit`)
+  return asked
+}
+
 /**
  * The incident on one time axis: from half an hour before its first alarm to a quarter hour after
- * its last event (at most a week, never past now), the watched tags' values and indicators, every
- * alarm event with who and comment, and the shift-log notes about it.
+ * its last event (at most a week, never past now), the charted tags' values, indicators and stored
+ * early-warning judgement (at most four, picked from the unit's tags), every alarm event with who
+ * and comment, and the shift-log notes about it.
  */
-export async function incidentTimeline(db: Db, id: number, options: { series?: boolean, nowMs?: number } = {}) {
+export async function incidentTimeline(db: Db, id: number, options: { series?: boolean, tags?: number[], nowMs?: number } = {}) {
   const nowMs = options.nowMs ?? Date.now()
   const incident = await incidentDetail(db, id)
   if (!incident) return undefined
@@ -72,9 +96,15 @@ export async function incidentTimeline(db: Db, id: number, options: { series?: b
   const from = first - BEFORE_MS
   const to = Math.min(nowMs, from + MAX_SPAN_MS, last + AFTER_MS)
   const notes = await notesAbout(db, incident, from, to)
-  const tagIds = [...new Set(incident.members.map(m => m.tagId).filter((t): t is number => t !== null))].slice(0, MAX_TAGS)
-  const charted = options.series === false ? [] : tagIds
-  const series = (await Promise.all(charted.map(t => readTagSeriesBetween(db, t, from / 1000, to / 1000, { atMostPerSample: true })))).filter(s => s !== undefined)
   const entries = [...events, ...notes].sort((a, b) => a.at.localeCompare(b.at))
-  return { incident, span: { from: new Date(from).toISOString(), to: new Date(to).toISOString() }, entries, series }
+  const spanIso = { from: new Date(from).toISOString(), to: new Date(to).toISOString() }
+  if (options.series === false) return { incident, span: spanIso, entries, tagChoices: [], series: [], judgement: [] }
+  const alarmTagIds = [...new Set(incident.members.map(m => m.tagId).filter((t): t is number => t !== null))]
+  const choices = await tagChoices(db, incident.unitId, alarmTagIds)
+  const charted = chartedTags(choices, options.tags)
+  const [series, judgement] = await Promise.all([
+    Promise.all(charted.map(t => readTagSeriesBetween(db, t, from / 1000, to / 1000, { atMostPerSample: true }))),
+    Promise.all(charted.map(t => judgementStrip(db, t, from, to))),
+  ])
+  return { incident, span: spanIso, entries, tagChoices: choices, series: series.filter(s => s !== undefined), judgement }
 }
