@@ -15,6 +15,9 @@ let context: BrowserContext
 const MIN = 60_000
 // Whole hours back from now, so the default period (the last 7 days) holds all of it.
 const BASE = Math.floor(Date.now() / 3_600_000) * 3_600_000 - 20 * 60 * MIN
+// The R-100 approach: its slowing-down alert, 20 min before its limit alarm.
+const APPROACH = BASE + 6 * 3_600_000
+const SLOWING = { from: APPROACH - 22 * MIN, to: APPROACH + 3 * MIN }
 
 beforeAll(async () => {
   await waitForDemoSite(sql)
@@ -29,12 +32,23 @@ beforeAll(async () => {
   // An approach on R-100: the slowing-down alert 20 min before the limit alarm, grouped by a tick.
   // The tag's samples (a slow sine with noise, ours) give the timeline something to draw; the tag is
   // not watched, so the tick raises nothing from them.
-  const approach = BASE + 6 * 3_600_000
-  await createTestTag(sql, 'TT-950', 'R-100', 10)
+  const approach = APPROACH
+  const tt950 = await createTestTag(sql, 'TT-950', 'R-100', 10)
   await sql`update tags set watched = false where code = 'TT-950'`
   await ingestAll(Array.from({ length: 540 }, (_, i) => ({
     tag: 'TT-950', time: new Date(approach - 45 * MIN + i * 10_000).toISOString(), value: 380 + 4 * Math.sin(i / 40) + ((i * 7919) % 13) / 13,
   })))
+  // Stored evaluations of TT-950 every minute, "slowing down" from 22 min before the alert to 3 min
+  // after it (ours): the judgement strip and its words must show exactly that run. TT-951 has
+  // samples but no evaluations, for the tag picker.
+  await sql`insert into indicator_points ${sql(Array.from({ length: 61 }, (_, k) => {
+    const at = approach - 30 * MIN + k * MIN
+    const slowing = at >= SLOWING.from && at <= SLOWING.to
+    return { tag_id: tt950, time: new Date(at), evidence: slowing ? 'slowing down' : 'no trend', p_ar1: slowing ? 0.02 : 0.5 }
+  }))}`
+  await createTestTag(sql, 'TT-951', 'R-100', 10)
+  await sql`update tags set watched = false where code = 'TT-951'`
+  await ingestAll(Array.from({ length: 540 }, (_, i) => ({ tag: 'TT-951', time: new Date(approach - 45 * MIN + i * 10_000).toISOString(), value: 12 + ((i * 7919) % 17) / 17 })))
   await oneShot(sql, await insertRule(sql, { unitCode: 'R-100', tagCode: 'TT-950', alarmClass: 'alert', measure: 'early_warning', name: 'R-100 slowing down' }), approach)
   await oneShot(sql, await insertRule(sql, { unitCode: 'R-100', tagCode: 'TT-950', priority: 'high', name: 'R-100 high temperature' }), approach + 20 * MIN)
   await tick()
@@ -103,15 +117,37 @@ describe('supervisor review pages', () => {
     await expect.poll(() => signOff.textContent()).toContain('Signed off by Sam Okafor')
     expect(await page.getByTestId('findings').textContent()).toContain('Cooling water flow fell')
     await screenshot(page, 'review-incident-closed')
-    await page.getByTestId('incident-timeline').locator('canvas').first().waitFor()
+    const timeline = page.getByTestId('incident-timeline')
+    await timeline.locator('canvas').first().waitFor()
+    // The alarm's tag by default: value, variance, recovery rate and the judgement strip, whose
+    // words name the run of "slowing down" the stored evaluations hold.
+    const tt950 = timeline.locator('[data-tag="TT-950"]')
+    await expect.poll(() => tt950.locator('.uplot').count()).toBe(4)
+    const runTimes = () => tt950.getByTestId('slowing-down-runs').locator('time').evaluateAll(ts => ts.map(t => t.getAttribute('datetime')))
+    const expectedRun = [new Date(SLOWING.from).toISOString(), new Date(SLOWING.to).toISOString()]
+    expect(await runTimes()).toEqual(expectedRun)
     await screenshot(page, 'review-incident-timeline')
+    // Every tag of the unit can be picked; TT-951 (no evaluations stored) joins the axis.
+    const picker = page.getByTestId('timeline-tag-picker')
+    const unitCodes = (await sql`select t.code from tags t join units u on u.id = t.unit_id where u.code = 'R-100'`).map(r => r.code as string)
+    const offered = (await picker.locator('label').allTextContents()).map(text => text.replace('(retired)', '').trim())
+    expect([...offered].sort()).toEqual([...unitCodes].sort())
+    await picker.getByRole('checkbox', { name: 'TT-951' }).check()
+    const tt951 = timeline.locator('[data-tag="TT-951"]')
+    await expect.poll(() => tt951.locator('.uplot').count()).toBe(3)
+    expect(await tt951.getByTestId('no-judgement').isVisible()).toBe(true)
+    await screenshot(page, 'review-incident-timeline-picked')
     const path = new URL(page.url()).pathname
-    // The report, as Chromium prints it: every section, the caution, no navigation.
-    await page.goto(url(`${path}/report`))
+    // The report, as Chromium prints it, with the tags picked: every section, the caution, no navigation.
+    await page.getByRole('link', { name: 'Printable report' }).click()
     await page.getByTestId('incident-report').waitFor()
     await page.emulateMedia({ media: 'print' })
     for (const section of ['early-warning', 'alarms', 'timeline', 'events', 'findings'])
       expect(await page.locator(`[data-section="${section}"]`).isVisible(), section).toBe(true)
+    const printed = page.locator('[data-section="timeline"]')
+    await expect.poll(() => printed.locator('[data-tag="TT-951"] .uplot').count()).toBe(3)
+    expect(await printed.locator('[data-tag="TT-950"]').getByTestId('slowing-down-runs').locator('time').evaluateAll(ts => ts.map(t => t.getAttribute('datetime')))).toEqual(expectedRun)
+    expect(await page.getByTestId('timeline-tag-picker').count()).toBe(0)
     expect(await page.getByTestId('report-caution').textContent()).toContain('Advisory only')
     expect(await page.getByTestId('report-sign-off').textContent()).toContain('Sam Okafor')
     expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(false)
