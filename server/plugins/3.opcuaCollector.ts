@@ -1,6 +1,6 @@
-import { join } from 'node:path'
 import { ensureMigrated } from './0.migrate'
 import { OpcuaSupervisor } from '../services/opcua/supervisor'
+import { opcuaPkiDir } from '../services/opcua/plantClient'
 
 // The OPC UA collector runs in every server instance (each connection is owned by one of them)
 // unless BRINKLINE_OPCUA_COLLECTOR=0 (server/utils/backgroundWorkers.ts).
@@ -12,7 +12,7 @@ export default defineNitroPlugin((nitroApp) => {
   const supervisor = new OpcuaSupervisor(useDb(), {
     pollMs: Number(process.env.BRINKLINE_OPCUA_POLL_MS ?? 5_000),
     maxBackoffMs: Number(process.env.BRINKLINE_OPCUA_MAX_BACKOFF_MS ?? 30_000),
-    pkiDir: process.env.BRINKLINE_OPCUA_PKI_DIR || join(process.cwd(), '.data', 'opcua-pki'),
+    pkiDir: opcuaPkiDir(),
     ready: ensureMigrated,
   })
   supervisor.start()

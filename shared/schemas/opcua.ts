@@ -55,15 +55,16 @@ export const opcuaConnectionUpdateSchema = z.object({ ...connectionFields, passw
 
 const MAX_MAPPINGS = 2000
 const NODE_ID_MAX_CHARS = 500
+const nodeIdField = textField().trim().min(1, 'is required').max(NODE_ID_MAX_CHARS, `must have at most ${NODE_ID_MAX_CHARS} characters`)
+  // The text forms of IEC 62541-6 §5.3.1.10: ns=<n>;i=|s=|g=|b=<id>, or a bare i=/s=… in namespace 0.
+  .regex(/^(?:ns=\d+;|nsu=[^;]+;)?[isgb]=.+$/, 'must be an OPC UA node id such as ns=2;s=Boiler.TI-401')
 /** Body of a node-to-tag table at its largest: every node id full and escaped, plus its keys and a tag id (under 64 bytes). */
 export const OPCUA_MAPPINGS_MAX_BYTES = MAX_MAPPINGS * (NODE_ID_MAX_CHARS * JSON_MAX_BYTES_PER_CHAR + 64) + 1024
 
 /** The whole node-to-tag table of one connection, replaced at once. */
 export const opcuaMappingsSchema = z.object({
   mappings: z.array(z.object({
-    nodeId: textField().trim().min(1, 'is required').max(NODE_ID_MAX_CHARS, `must have at most ${NODE_ID_MAX_CHARS} characters`)
-      // The text forms of IEC 62541-6 §5.3.1.10: ns=<n>;i=|s=|g=|b=<id>, or a bare i=/s=… in namespace 0.
-      .regex(/^(?:ns=\d+;|nsu=[^;]+;)?[isgb]=.+$/, 'must be an OPC UA node id such as ns=2;s=Boiler.TI-401'),
+    nodeId: nodeIdField,
     tagId: dbId('tag'),
   }).strict(), { invalid_type_error: 'must be a list' }).max(MAX_MAPPINGS, `must have at most ${MAX_MAPPINGS} entries`)
     .superRefine((list, ctx) => {
@@ -80,3 +81,6 @@ export const opcuaMappingsSchema = z.object({
 
 export type OpcuaConnectionCreate = z.output<typeof opcuaConnectionCreateSchema>
 export type OpcuaConnectionUpdate = z.output<typeof opcuaConnectionUpdateSchema>
+
+/** One step of a browse: the node whose children to list (the Objects folder when left out). */
+export const opcuaBrowseQuerySchema = z.object({ nodeId: nodeIdField.optional() }).strict()

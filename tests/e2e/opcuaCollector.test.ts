@@ -9,6 +9,7 @@ import { eventually, freeLoopbackPort } from '../support/opcua'
 import { createTestTag, runServerTask, waitForDemoSite } from '../support/pipeline'
 import { postgres } from '../support/postgresControl'
 import { setupBuiltServer } from '../support/server'
+import { call, signInAs } from '../support/session'
 
 // Issue 17 item 2: a real node-opcua server on loopback, in this process, feeds the collector of
 // the built Brinkline server. Checks follow IEC 62541: status severity decides quality (Part 4
@@ -150,9 +151,11 @@ describe('OPC UA collector', { timeout: 400_000 }, () => {
       const rows = await storedAll(tag, expectedOf(tag).length)
       expect(rows.map(r => [r.time.getTime(), r.value, r.quality])).toEqual(expectedOf(tag).map(p => [p.timeMs, p.value, QUALITY[p.quality]]))
     }
+    // The status row is written on the supervisor's next round, which may fall between subscribing
+    // (state connected) and the end of the backfill: wait for the round that counts it.
     const [c] = await eventually('status after the restart', async () => {
       const rows = await sql`select state, reconnect_count, backfilled_count from opcua_connections where id = ${connectionId}`
-      return rows[0]!.state === 'connected' && Number(rows[0]!.reconnect_count) >= 1 ? rows : undefined
+      return rows[0]!.state === 'connected' && Number(rows[0]!.reconnect_count) >= 1 && Number(rows[0]!.backfilled_count) > 0 ? rows : undefined
     })
     expect(Number(c!.backfilled_count)).toBeGreaterThan(0)
   })
@@ -181,6 +184,39 @@ describe('OPC UA collector', { timeout: 400_000 }, () => {
     })
     expect(Number(after!.reconnect_count)).toBe(Number(before!.reconnect_count))
     expect(Number(after!.backfilled_count)).toBe(Number(before!.backfilled_count))
+  })
+
+  it('lets an admin walk the server\'s address space down to the variables, read-only', async () => {
+    // IEC 62541-4 §5.8.2 Browse, hierarchical references forward from the Objects folder (ns=0;i=85, Part 5 §8.2.4).
+    const admin = await signInAs('admin')
+    const browse = (nodeId?: string) => call(`/api/admin/opcua/${connectionId}/browse${nodeId ? `?nodeId=${encodeURIComponent(nodeId)}` : ''}`, { cookie: admin })
+    const top = await browse()
+    expect(top.status).toBe(200)
+    const plantFolder = (top.body.children as { nodeId: string, displayName: string, nodeClass: string }[]).find(c => c.displayName === 'Plant')
+    expect(plantFolder?.nodeClass).toBe('Object')
+    const units = await browse(plantFolder!.nodeId)
+    const unit = (units.body.children as { nodeId: string, displayName: string }[]).find(c => c.displayName === 'Test unit')
+    expect(unit).toBeTruthy()
+    const variables = await browse(unit!.nodeId)
+    expect(variables.status).toBe(200)
+    const found = (variables.body.children as { nodeId: string, displayName: string, nodeClass: string }[])
+      .filter(c => c.nodeClass === 'Variable').map(c => [c.nodeId, c.displayName])
+    expect(found).toEqual(TAGS.map(code => [`ns=1;s=${code}`, code]))
+
+    const malformed = await browse('not a node')
+    expect(malformed.status).toBe(400)
+    expect(malformed.body.message).toMatch(/nodeId: /)
+    const unknown = await browse('ns=1;s=NO-SUCH-NODE')
+    expect(unknown.status).toBe(400)
+    expect(unknown.body.message).toMatch(/nodeId: /)
+    // A server that does not answer is the connection's endpoint to check, not a fault of ours (no 5xx).
+    const [row] = await sql`insert into opcua_connections (site_id, name, endpoint_url, enabled)
+      select site_id, 'Nobody there', 'opc.tcp://127.0.0.1:' || ${await freeLoopbackPort()} || '/none', false from opcua_connections where id = ${connectionId} returning id`
+    const unreachable = await call(`/api/admin/opcua/${row!.id}/browse`, { cookie: admin })
+    expect(unreachable.status).toBe(422)
+    expect(unreachable.body.message).toMatch(/endpointUrl: /)
+    expect((await call('/api/admin/opcua/999999/browse', { cookie: admin })).status).toBe(404)
+    expect(plant.requests.get('BrowseRequest')).toBeGreaterThan(0)
   })
 
   it('never sent a request that could change the plant', () => {

@@ -1,14 +1,12 @@
 import {
   AttributeIds, ClientMonitoredItemGroup, DataChangeFilter, DataChangeTrigger, DataType, DeadbandType,
-  MessageSecurityMode, OPCUAClient, SecurityPolicy, StatusCodes, TimestampsToReturn, UserTokenType,
-  type ClientSession, type DataValue, type UserIdentityInfo,
+  StatusCodes, TimestampsToReturn, type ClientSession, type DataValue,
 } from 'node-opcua-client'
-import { OPCUACertificateManager } from 'node-opcua-certificate-manager'
 import { qualityOfStatusCode, sampleTimeOf } from '#shared/opcua/statusQuality'
 import type { Db } from '../../utils/db'
 import { isDatabaseUnavailable } from '../../utils/dbUnavailable'
 import { newestSampleTimes, type CollectorConfig, type CollectorStatus } from './connectionRecords'
-import { decryptSecret } from './connectionSecret'
+import { createPlantClient, userIdentityOf } from './plantClient'
 import { SampleBuffer, type CollectedSample } from './sampleBuffer'
 
 export interface CollectorOptions {
@@ -112,18 +110,7 @@ export class Collector {
 
   /** One session from connect to loss; true when it got as far as subscribing. */
   private async runSession(): Promise<boolean> {
-    const client = OPCUAClient.create({
-      applicationName: 'Brinkline collector',
-      securityMode: MessageSecurityMode[this.config.securityMode],
-      securityPolicy: SecurityPolicy[this.config.securityPolicy as keyof typeof SecurityPolicy]
-        ?? SecurityPolicy.None,
-      endpointMustExist: false,
-      // Reconnection is this loop's job (with its own backoff), not the library's.
-      connectionStrategy: { maxRetry: 0, initialDelay: 1000, maxDelay: 1000 },
-      keepSessionAlive: true,
-      // Trust on first use: the plant server's certificate is accepted and kept in pkiDir.
-      clientCertificateManager: new OPCUACertificateManager({ rootFolder: this.options.pkiDir, automaticallyAcceptUnknownCertificate: true }),
-    })
+    const client = createPlantClient(this.config, this.options.pkiDir, 'Brinkline collector')
     const lost = new Promise<string>((resolve) => {
       this.endSession = () => resolve('stopped')
       client.on('connection_lost', () => resolve('connection lost'))
@@ -134,7 +121,7 @@ export class Collector {
     try {
       this.setState('connecting')
       await client.connect(this.config.endpointUrl)
-      const session = await client.createSession(this.userIdentity())
+      const session = await client.createSession(userIdentityOf(this.config))
       session.on('session_closed', () => this.endSession?.())
       session.on('keepalive_failure', () => this.endSession?.())
       // Where each tag's record ends is taken before subscribing: the subscription's first value
@@ -153,12 +140,6 @@ export class Collector {
       await client.disconnect().catch(() => {})
     }
     return subscribed
-  }
-
-  private userIdentity(): UserIdentityInfo | undefined {
-    if (!this.config.username) return undefined
-    const password = this.config.passwordSecret ? decryptSecret(this.config.passwordSecret) : ''
-    return { type: UserTokenType.UserName, userName: this.config.username, password }
   }
 
   private async subscribe(session: ClientSession) {

@@ -39,6 +39,18 @@ export async function enabledConnections(db: Db): Promise<CollectorConfig[]> {
   }))
 }
 
+/** How to reach one connection's server (enabled or not), for the admin's browse; undefined when there is no such connection. */
+export async function connectionEndpoint(db: Db, id: number) {
+  const [row] = await db.$sql<{ endpoint_url: string, security_mode: string, security_policy: string, username: string | null,
+    password_secret: string | null }[]>`
+    select endpoint_url, security_mode, security_policy, username, password_secret from opcua_connections where id = ${id}`
+  if (!row) return undefined
+  return {
+    endpointUrl: row.endpoint_url, securityMode: row.security_mode as CollectorConfig['securityMode'], securityPolicy: row.security_policy,
+    username: row.username, passwordSecret: row.password_secret,
+  }
+}
+
 /** Newest stored sample time per tag code of a site: where a history backfill starts. */
 export async function newestSampleTimes(db: Db, siteId: number, codes: string[]): Promise<Map<string, number>> {
   if (codes.length === 0) return new Map()
