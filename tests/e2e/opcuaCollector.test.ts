@@ -96,8 +96,12 @@ describe('OPC UA collector', { timeout: 400_000 }, () => {
     expect(c!.owner).toBeTruthy()
     expect(Number(c!.accepted_count)).toBe(published.length)
     expect((c!.last_value_at as Date).getTime()).toBe(Math.max(...published.map(p => p.timeMs)))
-    const bases = await sql`select distinct time_basis from opcua_mappings where connection_id = ${connectionId}`
-    expect(await eventually('time basis recorded', async () => (bases.length ? bases.map(b => b.time_basis) : undefined))).toEqual(['source'])
+    // The mapping's time basis is written after the samples, so it is read again until it is set.
+    const basesNow = async () => {
+      const bases = await sql`select distinct time_basis from opcua_mappings where connection_id = ${connectionId}`
+      return bases.length && bases.every(b => b.time_basis !== null) ? bases.map(b => b.time_basis) : undefined
+    }
+    expect(await eventually('time basis recorded', basesNow)).toEqual(['source'])
   })
 
   it('stores Bad and Uncertain values flagged with their quality', async () => {
