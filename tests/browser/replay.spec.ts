@@ -1,12 +1,12 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BrowserContext } from 'playwright-core'
 import { url } from '@nuxt/test-utils/e2e'
-import { wallClockText } from '../../shared/utils/timeText'
 import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
 import { testSql } from '../support/db'
 import { busToCollapse, FIXED_START_MS, tagWithDemoRules } from '../support/demoPlant'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
 import { ingestAll, waitForDemoSite } from '../support/pipeline'
+import { typedPlantTime } from '../support/plantTime'
 import { setupBuiltServer } from '../support/server'
 import { signInAs } from '../support/session'
 
@@ -24,9 +24,6 @@ afterAll(async () => {
   await sql.end()
 })
 
-/** The demo site's clock (server/services/demo/demoSeed.ts), as the form reads times. */
-const ZONE = 'Europe/London'
-const typed = (ms: number) => wallClockText(new Date(ms), ZONE).slice(0, 16)
 
 describe('engineer replays stored history on the workbench', () => {
   it('queues a replay, follows its progress through a reload and reads the report with the advisory caution', async () => {
@@ -44,9 +41,9 @@ describe('engineer replays stored history on the workbench', () => {
     await page.getByRole('heading', { name: 'Workbench · replays' }).waitFor()
     const form = page.getByRole('form', { name: 'New replay' })
     await form.getByRole('combobox', { name: /^Tag/ }).selectOption({ label: 'EI-371 — Test signal EI-371' })
-    await form.getByRole('textbox', { name: /^From/ }).fill(typed(Date.parse(rows[0]!.time) - 60_000))
-    await form.getByRole('textbox', { name: /^To \(/ }).fill(typed(FIXED_START_MS))
-    await form.getByRole('textbox', { name: /^Known event/ }).fill(typed(FIXED_START_MS))
+    await form.getByRole('textbox', { name: /^From/ }).fill(typedPlantTime(Date.parse(rows[0]!.time) - 60_000))
+    await form.getByRole('textbox', { name: /^To \(/ }).fill(typedPlantTime(FIXED_START_MS))
+    await form.getByRole('textbox', { name: /^Known event/ }).fill(typedPlantTime(FIXED_START_MS))
     // The approach is under an hour long: a 30-minute window leaves normal operation before it.
     await form.getByRole('textbox', { name: /^Warning window/ }).fill('30')
     await form.getByRole('textbox', { name: /^Note/ }).fill('bus collapse, demo')
@@ -77,7 +74,7 @@ describe('engineer replays stored history on the workbench', () => {
     await page.getByRole('link', { name: 'Same history, other settings' }).click()
     const again = page.getByRole('form', { name: 'New replay' })
     await again.getByRole('textbox', { name: /^α per look/ }).waitFor()
-    expect(await again.getByRole('textbox', { name: /^From/ }).inputValue()).toBe(wallClockText(new Date(Date.parse(rows[0]!.time) - 60_000), ZONE).slice(0, 16) + ':00')
+    expect(await again.getByRole('textbox', { name: /^From/ }).inputValue()).toBe(typedPlantTime(Date.parse(rows[0]!.time) - 60_000) + ':00')
     await again.getByRole('textbox', { name: /^α per look/ }).fill('0.001')
     await again.getByRole('button', { name: 'Queue replay' }).click()
     await page.waitForURL(url => /\/workbench\/replays\/\d+$/.test(url.pathname) && !url.pathname.endsWith(`/${firstId}`))

@@ -1,13 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BrowserContext, Page } from 'playwright-core'
 import { url } from '@nuxt/test-utils/e2e'
-import { wallClockText } from '../../shared/utils/timeText'
 import { seriousA11yViolations } from '../support/axe'
 import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
 import { testSql } from '../support/db'
 import { busToCollapse, FIXED_START_MS } from '../support/demoPlant'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
 import { ingestAll, waitForDemoSite } from '../support/pipeline'
+import { typedPlantTime } from '../support/plantTime'
 import { setupBuiltServer } from '../support/server'
 
 // The engineer's workbench journey (issue 14): a new tag on a demo unit, its indicator settings
@@ -25,9 +25,6 @@ afterAll(async () => {
   await sql.end()
 })
 
-/** The demo site's clock (server/services/demo/demoSeed.ts), as the forms read times. */
-const ZONE = 'Europe/London'
-const typed = (ms: number) => wallClockText(new Date(ms), ZONE).slice(0, 16)
 const CODE = 'EI-381'
 const DESCRIPTION = 'Load-bus voltage, second transmitter'
 
@@ -141,9 +138,9 @@ describe('engineer tunes a new tag on the workbench', () => {
     await page.getByRole('heading', { name: 'Workbench · replays' }).waitFor()
     const replayForm = page.getByRole('form', { name: 'New replay' })
     await replayForm.getByRole('combobox', { name: /^Tag/ }).selectOption({ label: `${CODE} — ${DESCRIPTION}` })
-    await replayForm.getByRole('textbox', { name: /^From/ }).fill(typed(Date.parse(rows[0]!.time) - 60_000))
-    await replayForm.getByRole('textbox', { name: /^To \(/ }).fill(typed(FIXED_START_MS))
-    await replayForm.getByRole('textbox', { name: /^Known event/ }).fill(typed(FIXED_START_MS))
+    await replayForm.getByRole('textbox', { name: /^From/ }).fill(typedPlantTime(Date.parse(rows[0]!.time) - 60_000))
+    await replayForm.getByRole('textbox', { name: /^To \(/ }).fill(typedPlantTime(FIXED_START_MS))
+    await replayForm.getByRole('textbox', { name: /^Known event/ }).fill(typedPlantTime(FIXED_START_MS))
     await replayForm.getByRole('textbox', { name: /^Warning window/ }).fill('30')
     await replayForm.getByRole('textbox', { name: /^Note/ }).fill('second transmitter, bus collapse')
     await screenshot(page, 'engineer-workbench-replay-form')
@@ -153,7 +150,7 @@ describe('engineer tunes a new tag on the workbench', () => {
     expect(await page.getByRole('note').first().textContent()).toContain('Advisory only')
     await page.getByRole('heading', { name: 'Report' }).waitFor({ timeout: 600_000 })
     const summary = await page.getByTestId('replay-summary').textContent()
-    expect(summary).toContain(`Marked event: ${wallClockText(new Date(FIXED_START_MS), ZONE).slice(0, 16)}`)
+    expect(summary).toContain(`Marked event: ${typedPlantTime(FIXED_START_MS)}`)
     expect(summary).toContain('warning window 30 min')
     expect(summary).toMatch(/Earliest warning: \d+ min before the event/)
     expect(await page.getByRole('img', { name: 'Value, with what would have fired chart' }).count()).toBe(1)
