@@ -40,19 +40,31 @@ export async function requireUser(event: H3Event): Promise<User> {
   return (await requireLiveSession(event)).user
 }
 
+/**
+ * A refused action goes into the audit log (who, which route, from where) before its 403, so an
+ * admin can see attempts beyond a role, not only what was done. A signed-in user is attributable,
+ * so the row cannot be written anonymously at will. If the log cannot be written the 403 still
+ * stands (the refusal matters more than its record), and the failure is logged.
+ */
+async function refuse(event: H3Event, user: User, message: string): Promise<never> {
+  await writeAudit(useDb(), {
+    userId: user.id, action: 'access.refused', target: `${event.method} ${event.path.split('?')[0]}`,
+    address: clientAddress(event), detail: { role: user.role, reason: message },
+  }).catch((err: Error) => console.error(`[audit] a refused ${event.method} ${event.path} was not recorded: ${err.message}`))
+  throw createError({ statusCode: 403, message })
+}
+
 /** 401 unless signed in, 403 unless the user's role is one of `roles`. */
 export async function requireRole(event: H3Event, ...roles: Role[]): Promise<User> {
   const user = await requireUser(event)
-  if (!roles.includes(user.role))
-    throw createError({ statusCode: 403, message: `This needs the ${roles.join(' or ')} role; you are signed in as ${user.role}` })
+  if (!roles.includes(user.role)) await refuse(event, user, `This needs the ${roles.join(' or ')} role; you are signed in as ${user.role}`)
   return user
 }
 
 /** Same as requireRole, phrased by capability (docs/design.md §D2.1). */
 export async function requireCapability(event: H3Event, capability: Capability): Promise<User> {
   const user = await requireUser(event)
-  if (!can(user.role, capability))
-    throw createError({ statusCode: 403, message: `Your role (${user.role}) may not ${capability}` })
+  if (!can(user.role, capability)) await refuse(event, user, `Your role (${user.role}) may not ${capability}`)
   return user
 }
 

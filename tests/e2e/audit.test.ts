@@ -77,4 +77,17 @@ describe('audit log', () => {
     expect((await call('/api/admin/audit', { cookie: await signInAs('operator') })).status).toBe(403)
     expect((await call('/api/admin/audit/export')).status).toBe(401)
   })
+
+  it('records a refused action (403) with who, which route and from where, and the admin can filter for it', async () => {
+    const operator = await signInAs('operator')
+    const [op] = await sql`select id from users where email = ${demoEmail('operator')}`
+    const refused = await call('/api/admin/users', { cookie: operator })
+    expect(refused.status).toBe(403)
+    const mine = await call(`/api/admin/audit?userId=${op!.id}&action=access.refused&from=${encodeURIComponent(started)}`, { cookie: admin })
+    expect(mine.status).toBe(200)
+    const row = mine.body.find((e: { target: string }) => e.target === 'GET /api/admin/users')
+    expect(row, JSON.stringify(mine.body)).toBeTruthy()
+    expect(row.detail).toMatchObject({ role: 'operator' })
+    expect(row.address).toBeTruthy()
+  })
 })
