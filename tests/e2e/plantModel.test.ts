@@ -34,6 +34,13 @@ describe('plant model: sites, units and tags (engineers only, audited, history k
     const tag = await call('/api/tags', { method: 'POST', cookie: engineer, json: { ...NEW_TAG, unitId: unit.body.id } })
     expect(tag.status).toBe(201)
     expect(tag.body).toMatchObject({ ...NEW_TAG, siteId: site.body.id, watched: true, loopTagId: null })
+    // A code is unique per site (ISA-5.1 tag numbers identify one instrument in a plant) [common practice].
+    const again = await call('/api/tags', { method: 'POST', cookie: engineer, json: { ...NEW_TAG, unitId: unit.body.id } })
+    expect(again.status).toBe(409)
+    expect(again.body.message).toBe('code: a tag called "FIC-701" already exists on this site')
+    const unitAgain = await call('/api/units', { method: 'POST', cookie: engineer, json: { siteId: site.body.id, code: 'F-700', name: 'Feed train', kind: 'feed' } })
+    expect(unitAgain.status).toBe(409)
+    expect(unitAgain.body.message).toBe('code: a unit with code "F-700" already exists on this site')
     const audit = await sql`select action, detail from audit_log where action in ('site.create', 'unit.create', 'tag.create') order by id`
     expect(audit.map(a => a.action)).toEqual(['site.create', 'unit.create', 'tag.create'])
     expect(audit[2]!.detail.after).toMatchObject({ code: 'FIC-701', samplePeriodS: 5 })

@@ -1,15 +1,13 @@
 import { and, count, eq, isNull } from 'drizzle-orm'
 import type { SiteCreate, SitePatch } from '#shared/schemas/plant'
 import { changedFields } from '#shared/utils/changedFields'
+import type { DbTransaction } from '../../utils/db'
 import { sites, units } from '../../db/schema'
-import { PlantConflict } from './errors'
+import { PlantConflict, refuseDuplicateCode } from './errors'
 
 const SITE_FIELDS = ['code', 'name', 'company', 'timeZone'] as const
 
-function duplicateCode(err: unknown, code: string | undefined): never {
-  if (sqlState(err) === UNIQUE_VIOLATION) throw new PlantConflict(`code: a site with code "${code}" already exists`)
-  throw err
-}
+const duplicateCode = (err: unknown, code: string | undefined): never => refuseDuplicateCode(err, `a site with code "${code}" already exists`)
 
 export async function createSite(tx: DbTransaction, input: SiteCreate) {
   const [site] = await tx.insert(sites).values(input).returning().catch(err => duplicateCode(err, input.code))

@@ -1,18 +1,16 @@
 import { eq } from 'drizzle-orm'
 import { tagCrossIssues, type TagCreate, type TagPatch } from '#shared/schemas/plant'
 import { changedFields } from '#shared/utils/changedFields'
+import type { DbTransaction } from '../../utils/db'
 import { alarmRules, tags, units } from '../../db/schema'
-import { PlantConflict, PlantInputRefused } from './errors'
+import { PlantConflict, PlantInputRefused, refuseDuplicateCode } from './errors'
 
 type TagRow = typeof tags.$inferSelect
 
 const TAG_FIELDS = ['unitId', 'code', 'description', 'engineeringUnit', 'samplePeriodS', 'rangeLow', 'rangeHigh',
   'noiseFloor', 'quantisationStep', 'loopTagId', 'loopRole'] as const satisfies readonly (keyof TagRow)[]
 
-function duplicateCode(err: unknown, code: string | undefined): never {
-  if (sqlState(err) === UNIQUE_VIOLATION) throw new PlantConflict(`code: a tag called "${code}" already exists on this site`)
-  throw err
-}
+const duplicateCode = (err: unknown, code: string | undefined): never => refuseDuplicateCode(err, `a tag called "${code}" already exists on this site`)
 
 async function unitInService(tx: DbTransaction, unitId: number) {
   const [unit] = await tx.select().from(units).where(eq(units.id, unitId))

@@ -1,15 +1,13 @@
 import { and, count, eq, isNull } from 'drizzle-orm'
 import type { UnitCreate, UnitPatch } from '#shared/schemas/plant'
 import { changedFields } from '#shared/utils/changedFields'
+import type { DbTransaction } from '../../utils/db'
 import { sites, tags, units } from '../../db/schema'
-import { PlantConflict, PlantInputRefused } from './errors'
+import { PlantConflict, PlantInputRefused, refuseDuplicateCode } from './errors'
 
 const UNIT_FIELDS = ['code', 'name', 'kind', 'description'] as const
 
-function duplicateCode(err: unknown, code: string | undefined): never {
-  if (sqlState(err) === UNIQUE_VIOLATION) throw new PlantConflict(`code: a unit with code "${code}" already exists on this site`)
-  throw err
-}
+const duplicateCode = (err: unknown, code: string | undefined): never => refuseDuplicateCode(err, `a unit with code "${code}" already exists on this site`)
 
 export async function createUnit(tx: DbTransaction, input: UnitCreate) {
   const [site] = await tx.select().from(sites).where(eq(sites.id, input.siteId))
