@@ -9,14 +9,21 @@ import { DEMO_PASSWORD, demoEmail } from './session'
 const SCREENSHOTS = join(process.env.TEST_OUTPUT_DIR ?? 'test-output', 'screenshots')
 
 // Debian's Chromium with the flags this closed network needs (no background connections).
+// Waits are generous: on a loaded 2-core machine the first page of a file (a cold Chromium and a
+// cold server) took over Playwright's 30 s default to sign in; a test still ends at its own limit.
+const ACTION_TIMEOUT_MS = 90_000
+
 export async function launchChromium(): Promise<BrowserContext> {
-  return chromium.launchPersistentContext(mkdtempSync(join(tmpdir(), 'brinkline-chromium-')), {
+  const context = await chromium.launchPersistentContext(mkdtempSync(join(tmpdir(), 'brinkline-chromium-')), {
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     headless: true,
     viewport: { width: 1440, height: 900 },
     args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
       '--disable-background-networking', '--disable-component-update', '--disable-sync'],
   })
+  context.setDefaultTimeout(ACTION_TIMEOUT_MS)
+  context.setDefaultNavigationTimeout(ACTION_TIMEOUT_MS)
+  return context
 }
 
 export async function signInThroughForm(page: Page, role: Role): Promise<void> {

@@ -10,6 +10,20 @@ export interface CollectedSample { tag: string, time: number, value: number, qua
 // beyond the bound the oldest go (counted as an error, and the history backfill may recover them).
 const MAX_BUFFERED = 500_000
 const BATCH = 5_000
+/**
+ * A store that has not answered in this time is given up and tried again: a query caught by a
+ * database restart must not hold the buffer for good. If the abandoned one committed after all,
+ * the retry's rows are duplicates, which ingest ignores (idempotent on tag and time).
+ */
+export const STORE_TIMEOUT_MS = 30_000
+
+function withinTime<T>(work: Promise<T>, ms: number): Promise<T> {
+  let timer: ReturnType<typeof setTimeout> | undefined
+  const late = new Promise<never>((_resolve, reject) => {
+    timer = setTimeout(() => reject(new Error(`the database did not answer a store within ${ms / 1000} s; trying again`)), ms)
+  })
+  return Promise.race([work, late]).finally(() => clearTimeout(timer))
+}
 
 export class SampleBuffer {
   private queue: CollectedSample[] = []
@@ -47,11 +61,11 @@ export class SampleBuffer {
     while (this.queue.length > 0) {
       const batch = this.queue.slice(0, BATCH)
       const newestMs = batch.reduce((m, s) => Math.max(m, s.time), -Infinity)
-      const outcome = await ingestBatch(this.db, {
+      const outcome = await withinTime(ingestBatch(this.db, {
         siteId: this.connection.siteId,
         items: batch,
         countAgainstSource: (tx, counts) => countConnectionBatch(tx, this.connection.id, counts, newestMs),
-      })
+      }), STORE_TIMEOUT_MS)
       this.queue.splice(0, batch.length)
       const last = outcome.rejected.at(-1)
       if (last) this.onError(`${outcome.rejected.length} values refused; last: ${batch[last.index]?.tag ?? ''} ${last.field} ${last.reason}`)
