@@ -9,16 +9,10 @@ import { QUALITY_CODES } from '../utils/sampleQuality'
 import type { EvaluationPoint } from './evaluateRecord'
 import { measureOf } from './ruleMeasure'
 
-/** Times (s) at which the rule would have raised. */
+/** Times (s) at which the rule would have raised (replayConditions over the points alone). */
 export function ruleActivations(points: readonly EvaluationPoint[], measure: Exclude<TagMeasure, 'value'>, condition: ConditionSettings): number[] {
-  let state = INACTIVE
-  const raised: number[] = []
-  for (const point of points) {
-    const step = stepCondition(condition, state, point.time, measureOf(point, measure))
-    state = step.state
-    if (step.change === 'activate') raised.push(point.time)
-  }
-  return raised
+  const observations = points.map(point => ({ rule: 0, time: point.time, value: measureOf(point, measure), current: point }))
+  return replayConditions([condition], [INACTIVE], observations).filter(c => c.change === 'activate').map(c => c.time)
 }
 
 /** One observation for one rule: `rule` indexes the measures passed in. */

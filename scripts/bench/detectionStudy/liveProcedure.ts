@@ -2,11 +2,12 @@
 // (evaluateRecord with the tag's default settings, then the slowing-down rule's condition tracker
 // with the demo on-/off-delays). Only read-outs are added here: whether the alert is still active
 // at the end, the last point's trend score and its fold horizon.
-import { INACTIVE, stepCondition, type ConditionSettings } from '../../../shared/alarms/conditionTracker'
+import { INACTIVE, type ConditionSettings } from '../../../shared/alarms/conditionTracker'
 import type { SampledSeries } from '../../../shared/analysis/simulate'
 import type { EvaluationPoint } from '../../../shared/pipeline/evaluateRecord'
 import { defaultIndicatorSettings, EARLY_WARNING_DELAYS, evaluationIntervalS } from '../../../shared/pipeline/indicatorDefaults'
 import { measureOf } from '../../../shared/pipeline/ruleMeasure'
+import { replayConditions } from '../../../shared/pipeline/ruleReplay'
 import { liveRun } from '../detection'
 
 /** Every benchmark record has one sample per second. */
@@ -43,16 +44,11 @@ function slowingDownCondition(): ConditionSettings {
  * raises), and checks its raises against liveRun's so this copy cannot drift from the live one.
  */
 function finalAlertState(points: readonly EvaluationPoint[], liveAlerts: readonly number[]): boolean {
-  const condition = slowingDownCondition()
-  let state = INACTIVE
-  const raised: number[] = []
-  for (const point of points) {
-    const step = stepCondition(condition, state, point.time, measureOf(point, 'early_warning'))
-    state = step.state
-    if (step.change === 'activate') raised.push(point.time)
-  }
+  const states = [INACTIVE]
+  const observations = points.map(point => ({ rule: 0, time: point.time, value: measureOf(point, 'early_warning'), current: point }))
+  const raised = replayConditions([slowingDownCondition()], states, observations).filter(c => c.change === 'activate').map(c => c.time)
   if (raised.join() !== liveAlerts.join()) throw new Error(`replay raised at ${raised.join()} but liveRun at ${liveAlerts.join()}: liveRun's rule changed`)
-  return state.active
+  return states[0]!.active
 }
 
 export function runLive(series: SampledSeries, tagId: number): LiveOutcome {
