@@ -1,7 +1,10 @@
+import { spawn, type ChildProcess } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
+import { createServer } from 'node:net'
 import { fileURLToPath } from 'node:url'
 import { setup } from '@nuxt/test-utils/e2e'
 import postgres from 'postgres'
+import { afterAll } from 'vitest'
 
 export const ROOT = fileURLToPath(new URL('../..', import.meta.url))
 
@@ -39,13 +42,70 @@ const WORKERS_OFF = { BRINKLINE_OPCUA_COLLECTOR: '0', BRINKLINE_REPLAY_WORKER: '
  */
 export async function setupBuiltServer(env: Record<string, string> = {}, options: { port?: number } = {}) {
   const databaseUrl = await createFileDatabase()
+  fileServerEnv = { NUXT_DATABASE_URL: databaseUrl, ...WORKERS_OFF, ...env }
   await setup({
     rootDir: ROOT,
     build: false,
     server: true,
     nuxtConfig: { nitro: { output: { dir: `${ROOT}/.output` } } },
-    env: { NUXT_DATABASE_URL: databaseUrl, ...WORKERS_OFF, ...env },
+    env: fileServerEnv,
     setupTimeout: 180_000,
     ...options,
   })
+}
+
+/** The env this file's first server was started with; another instance starts from the same. */
+let fileServerEnv: Record<string, string> | undefined
+
+function freeLoopbackPort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const probe = createServer().once('error', reject).listen(0, '127.0.0.1', () => {
+      const { port } = probe.address() as { port: number }
+      probe.close(() => resolve(port))
+    })
+  })
+}
+
+export interface ServerInstance {
+  /** Base address, no trailing slash: `${instance.url}/api/...`. */
+  url: string
+  /** Everything the instance printed, for a test that reads its start-up lines. */
+  logs: () => string
+  /** Ends the process: SIGTERM lets it close; SIGKILL is a crash (nothing runs after it). */
+  stop: (signal?: 'SIGTERM' | 'SIGKILL') => Promise<void>
+}
+
+/**
+ * One more instance of the same build on this file's database, as a second machine behind a load
+ * balancer would run it (call after setupBuiltServer). The first server migrated and seeded, so
+ * this one does not seed unless asked; sessions are sealed cookies, so a cookie from either
+ * instance opens the other. Stopped after the file's tests if the test did not stop it.
+ */
+export async function startServerInstance(env: Record<string, string> = {}): Promise<ServerInstance> {
+  if (!fileServerEnv) throw new Error('startServerInstance: call setupBuiltServer first')
+  const port = await freeLoopbackPort()
+  const url = `http://127.0.0.1:${port}`
+  let output = ''
+  const child: ChildProcess = spawn('node', [`${ROOT}/.output/server/index.mjs`], {
+    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', BRINKLINE_SEED_DEMO: '0', ...fileServerEnv, ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  child.stdout!.on('data', (chunk: Buffer) => { output += chunk.toString() })
+  child.stderr!.on('data', (chunk: Buffer) => { output += chunk.toString() })
+  const exited = new Promise<void>(resolve => child.once('exit', () => resolve()))
+  const stop = async (signal: 'SIGTERM' | 'SIGKILL' = 'SIGTERM') => {
+    if (child.exitCode === null && child.signalCode === null) child.kill(signal)
+    await exited
+  }
+  afterAll(() => stop('SIGKILL'))
+
+  const deadline = Date.now() + 180_000
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`server instance exited with ${child.exitCode}: ${output.slice(-2000)}`)
+    const res = await fetch(`${url}/api/public/health`).catch(() => null)
+    if (res?.status === 200) return { url, logs: () => output, stop }
+    await new Promise(resolve => setTimeout(resolve, 250))
+  }
+  await stop('SIGKILL')
+  throw new Error(`server instance on ${url} was not healthy within 180 s: ${output.slice(-2000)}`)
 }

@@ -16,12 +16,15 @@ export async function signInAs(role: Role): Promise<string> {
   return cookie
 }
 
-/** fetch against the test server with an optional session cookie; never throws on 4xx/5xx. */
+/**
+ * fetch against the test server with an optional session cookie; never throws on 4xx/5xx. A full
+ * address (`http://…`) reaches another instance (tests/support/server.ts startServerInstance).
+ */
 export async function call(path: string, init: RequestInit & { cookie?: string, json?: unknown } = {}) {
   const headers = new Headers(init.headers)
   if (init.cookie) headers.set('cookie', init.cookie)
   if (init.json !== undefined) headers.set('content-type', 'application/json')
-  const res = await fetch(url(path), { ...init, headers, body: init.json !== undefined ? JSON.stringify(init.json) : init.body })
+  const res = await fetch(/^https?:\/\//.test(path) ? path : url(path), { ...init, headers, body: init.json !== undefined ? JSON.stringify(init.json) : init.body })
   const text = await res.text()
   let body: unknown = text
   try { body = JSON.parse(text) } catch { /* not JSON */ }
