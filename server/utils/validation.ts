@@ -8,12 +8,20 @@ export function describeIssues(error: z.ZodError): string {
 }
 
 function badRequest(error: z.ZodError): never {
+  refuse(error.issues.map(i => ({ field: i.path.join('.') || 'body', reason: i.message })))
+}
+
+function refuse(issues: { field: string, reason: string }[]): never {
   throw createError({
     statusCode: 400,
-    message: `Invalid input — ${describeIssues(error)}`,
-    data: { issues: error.issues.map(i => ({ field: i.path.join('.'), reason: i.message })) },
+    message: `Invalid input — ${issues.map(i => `${i.field}: ${i.reason}`).join('; ')}`,
+    data: { issues },
   })
 }
+
+/** h3's answer to a body that does not parse as JSON (its _parseJSON), which names no field. */
+const isUnparsableJson = (err: unknown) =>
+  (err as { statusCode?: number })?.statusCode === 400 && (err as Error)?.message === 'Invalid JSON body'
 
 type ValidatedReader = (event: H3Event, validate: (data: unknown) => Promise<unknown>) => Promise<unknown>
 
@@ -28,7 +36,11 @@ function validWith(read: ValidatedReader) {
       failure = result.error
       return false
     }
-    return await read(event, check).catch((err: unknown) => (failure ? badRequest(failure) : Promise.reject(err))) as z.output<T>
+    return await read(event, check).catch((err: unknown) => {
+      if (failure) badRequest(failure)
+      if (isUnparsableJson(err)) refuse([{ field: 'body', reason: 'is not valid JSON (cut off, or not JSON at all)' }])
+      throw err
+    }) as z.output<T>
   }
 }
 

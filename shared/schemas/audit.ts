@@ -1,10 +1,11 @@
 import { z } from 'zod'
-import { dbId } from './fields'
+import { CALENDAR_MESSAGE, dbId, isImpossibleCalendarDate } from './fields'
 
 // ISO 8601 with an explicit offset or Z: a zone-less time would be read in the server's zone.
 const instant = z.string().trim()
   .regex(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d+)?)?(Z|[+-]\d{2}:\d{2})$/, 'must be an ISO 8601 time with Z or an offset')
   .refine(s => { const y = Number(s.slice(0, 4)); return y >= 2000 && y <= 2100 && Number.isFinite(Date.parse(s)) }, 'must be a real time between 2000 and 2100')
+  .refine(s => !isImpossibleCalendarDate(s), CALENDAR_MESSAGE)
   .transform(s => new Date(s))
 
 export const auditQuerySchema = z.object({

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { parseWallClock } from '../utils/zonedTime'
 
 // Field types every contract shares, so a bound that protects the database holds on every route.
 
@@ -46,13 +47,29 @@ export const displayNameField = () => textField().trim()
   .min(2, 'must have at least 2 characters').max(80, 'must have at most 80 characters')
   .refine(s => !CONTROL_CHARACTER.test(s), 'must not contain control characters')
 
+const LEADING_DATE = /^\s*(\d{4})-(\d{2})-(\d{2})(?!\d)/
+export const CALENDAR_MESSAGE = 'must be a real calendar date (day or month out of range)'
+
+/**
+ * Whether text starting YYYY-MM-DD names a day the calendar lacks. JavaScript's Date rolls
+ * 2026-02-30 over into 2 March and 2026-04-31 into 1 May instead of refusing them, so the
+ * calendar fields are checked before it reads the text (the same check as plant-local times).
+ */
+export function isImpossibleCalendarDate(value: unknown): boolean {
+  if (typeof value !== 'string') return false
+  const m = LEADING_DATE.exec(value)
+  return m !== null && parseWallClock(`${m[1]}-${m[2]}-${m[3]} 00:00`) === null
+}
+
 /**
  * A time in a query or body (ISO 8601). JavaScript reads years past 9999 ("10000-01-01"), but
  * their ISO text (+010000-…) is not one the database reads, so they are refused like any
- * unreadable time.
+ * unreadable time; so is a day the calendar lacks, which JavaScript would silently move.
  */
-export const timeField = () => z.coerce.date({ errorMap: () => ({ message: 'must be an ISO 8601 time' }) })
-  .refine(d => d.getUTCFullYear() >= 1 && d.getUTCFullYear() <= 9999, 'must be a time in the years 1 to 9999')
+export const timeField = () => z.unknown()
+  .superRefine((v, ctx) => { if (isImpossibleCalendarDate(v)) ctx.addIssue({ code: 'custom', message: CALENDAR_MESSAGE }) })
+  .pipe(z.coerce.date({ errorMap: () => ({ message: 'must be an ISO 8601 time' }) })
+    .refine(d => d.getUTCFullYear() >= 1 && d.getUTCFullYear() <= 9999, 'must be a time in the years 1 to 9999'))
 
 /**
  * An instant that names its zone: ISO 8601 ending in Z or an offset. A time without one would be

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { dbId, MAX_DB_ID, textField, timeField, zonedTimeField } from '../../../../shared/schemas/fields'
+import { CALENDAR_MESSAGE, dbId, isImpossibleCalendarDate, MAX_DB_ID, textField, timeField, zonedTimeField } from '../../../../shared/schemas/fields'
 import { csvEncodingProblem } from '../../../../shared/utils/csvLayout'
 
 describe('row ids stay inside PostgreSQL integer', () => {
@@ -45,6 +45,23 @@ describe('zoned times name their offset', () => {
   })
   it.each([['2026-05-01T12:00:00Z', '2026-05-01T12:00:00.000Z'], ['2026-05-01T14:00:00+02:00', '2026-05-01T12:00:00.000Z'], ['2026-05-01T07:00-0500', '2026-05-01T12:00:00.000Z']])('reads %s', (raw, iso) => {
     expect(zonedTimeField().parse(raw).toISOString()).toBe(iso)
+  })
+})
+
+describe('times name days the calendar has', () => {
+  // Gregorian calendar: 30 days in April, 28 in February of a common year, 29 in a leap year
+  // (divisible by 4, not by 100 unless by 400: 2000 leap, 2100 common) [common practice].
+  it.each(['2026-02-30T00:00:00Z', '2026-02-29', '2026-04-31T12:00:00+02:00', '2100-02-29T00:00:00Z', '2026-13-01', '2026-00-10'])('refuses %s', (raw) => {
+    const result = timeField().safeParse(raw)
+    expect(result.success).toBe(false)
+    expect(result.error!.issues[0]!.message).toBe(CALENDAR_MESSAGE)
+    expect(zonedTimeField().safeParse(raw).success).toBe(false)
+  })
+  it('reads the real ones, leap days included', () => {
+    expect(timeField().parse('2028-02-29T00:00:00Z').toISOString()).toBe('2028-02-29T00:00:00.000Z')
+    expect(timeField().parse('2000-02-29').toISOString()).toBe('2000-02-29T00:00:00.000Z')
+    expect(timeField().parse('2026-04-30T23:59:59Z').toISOString()).toBe('2026-04-30T23:59:59.000Z')
+    expect(isImpossibleCalendarDate(1_780_000_000_000)).toBe(false)
   })
 })
 
