@@ -100,6 +100,7 @@ export default defineNuxtConfig({
     scheduledTasks: {
       [process.env.NUXT_PIPELINE_CRON || '*/10 * * * * *']: ['indicators:refresh'],
       [process.env.NUXT_SENDER_CRON || '*/5 * * * * *']: ['notifications:send'],
+      '30 * * * * *': ['replays:sweep'],
     },
     // Tag evaluations run on worker threads, which load their code from a file of the bundle.
     rollupConfig: { plugins: [workerChunkPlugin(evaluationWorker, 'workers/evaluate-record.mjs')] },

@@ -21,10 +21,11 @@ import type { H3Event } from 'h3'
  */
 const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE'])
 const JSON_ONLY = ['application/json']
-/** Routes that take a file upload: the CSV bytes as the body (app/composables/useCsvUpload.ts, app/pages/upload.vue). */
+/** Routes that take a file upload: the CSV bytes as the body (app/composables/useCsvUpload.ts, app/pages/upload.vue, the replay form). */
 const BODY_TYPES_BY_ROUTE: Record<string, readonly string[]> = {
   '/api/uploads/preview': ['text/csv'],
   '/api/uploads/import': ['text/csv'],
+  '/api/replays/upload': ['text/csv'],
 }
 const ORIGIN_CHECK_EXEMPT = new Set(['/api/ingest'])
 

@@ -11,3 +11,20 @@ export function isDatabaseUnavailable(error: unknown): boolean {
   }
   return false
 }
+
+/**
+ * Resolves once the database answers again, trying every `everyMs`. For background work that must
+ * record its own failure: a job queue kept in the database cannot note a retry while it is down.
+ */
+export async function untilDatabaseAnswers(ping: () => Promise<unknown>, everyMs = 5_000): Promise<void> {
+  for (;;) {
+    try {
+      await ping()
+      return
+    }
+    catch (err) {
+      if (!isDatabaseUnavailable(err)) throw err
+      await new Promise(resolve => setTimeout(resolve, everyMs))
+    }
+  }
+}

@@ -59,6 +59,9 @@ export type TargetKind = typeof TARGET_KINDS[number]
 /** Where a replay of stored history stands (docs/design.md §D4 replay): queued, running, then done or failed. */
 export const REPLAY_STATES = ['queued', 'running', 'done', 'failed'] as const
 export type ReplayState = typeof REPLAY_STATES[number]
+/** A replay runs on the tag's stored history or on a historian file uploaded for it. */
+export const REPLAY_SOURCES = ['history', 'upload'] as const
+export type ReplaySource = typeof REPLAY_SOURCES[number]
 
 /** Tile status of a tag (docs/design.md §D3), most severe first after the data problems. */
 export const TAG_STATUSES = ['steady', 'watch', 'warning', 'alarm', 'no data', 'bad quality'] as const

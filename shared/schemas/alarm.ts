@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { dbId, textField, timeField } from './fields'
+import { dbId, textField, timeField, listLimit } from './fields'
 import { ALARM_STATES, PRIORITIES } from '../alarms/vocabulary'
 
 const id = dbId()
@@ -13,7 +13,7 @@ export const alarmListQuerySchema = z.object({
   state: z.enum(ALARM_STATES, { errorMap: () => ({ message: `must be one of ${ALARM_STATES.join(', ')}` }) }).optional(),
   from: time.optional(),
   to: time.optional(),
-  limit: z.coerce.number({ invalid_type_error: 'must be a number' }).int().min(1, 'must be at least 1').max(500, 'must be at most 500').default(100),
+  limit: listLimit(500, 100),
 }).refine(q => !q.from || !q.to || q.from < q.to, { path: ['to'], message: 'must be after from' })
 export type AlarmListQuery = z.infer<typeof alarmListQuerySchema>
 

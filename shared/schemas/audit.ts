@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { CALENDAR_MESSAGE, dbId, isImpossibleCalendarDate } from './fields'
+import { CALENDAR_MESSAGE, dbId, isImpossibleCalendarDate, listLimit } from './fields'
 
 // ISO 8601 with an explicit offset or Z: a zone-less time would be read in the server's zone.
 const instant = z.string().trim()
@@ -14,6 +14,6 @@ export const auditQuerySchema = z.object({
   action: z.string().trim().max(60, 'must have at most 60 characters').regex(/^[a-z_.-]*$/, 'must be an action name such as user.update or user.').optional(),
   from: instant.optional(),
   to: instant.optional(),
-  limit: z.coerce.number({ invalid_type_error: 'must be a number' }).int().min(1, 'must be at least 1').max(1000, 'must be at most 1000').default(200),
+  limit: listLimit(1000, 200),
 }).refine(q => !q.from || !q.to || q.from < q.to, { message: 'must be after from', path: ['to'] })
 export type AuditQuery = z.output<typeof auditQuerySchema>

@@ -17,6 +17,10 @@ export const dbId = (what?: string) => {
     .int(message).positive(message).max(MAX_DB_ID, `${message} (at most ${MAX_DB_ID})`)
 }
 
+/** How many rows a list answers: `?limit=`, 1 to `max`, `fallback` when left out. */
+export const listLimit = (max: number, fallback: number) => z.coerce.number({ invalid_type_error: 'must be a number' })
+  .int('must be a whole number').min(1, 'must be at least 1').max(max, `must be at most ${max}`).default(fallback)
+
 /** The `:id` of a route's path. */
 export const idParamsSchema = z.object({ id: dbId() })
 

@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { ALERT_OUTCOMES, INCIDENT_STATES, MAX_INCIDENT_WINDOW_S } from '../alarms/reviewVocabulary'
-import { dbId, JSON_MAX_BYTES_PER_CHAR, textField } from './fields'
+import { dbId, JSON_MAX_BYTES_PER_CHAR, textField, listLimit } from './fields'
 
 const FINDING_MAX_CHARS = 8000
 const TITLE_MAX_CHARS = 200
@@ -19,7 +19,7 @@ export const incidentListQuerySchema = z.object({
   unitId: dbId('unit').optional(),
   /** The incident that holds this alarm (at most one). */
   alarmId: dbId('alarm').optional(),
-  limit: z.coerce.number({ invalid_type_error: 'must be a number' }).int().min(1, 'must be at least 1').max(500, 'must be at most 500').default(200),
+  limit: listLimit(500, 200),
 })
 export type IncidentListQuery = z.infer<typeof incidentListQuerySchema>
 

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { dbId, textField, zonedTimeField } from './fields'
+import { dbId, textField, zonedTimeField, listLimit } from './fields'
 
 const optionalId = dbId().optional()
 
@@ -30,7 +30,7 @@ export const shiftLogQuerySchema = z.object({
   unitId: optionalId,
   tagId: optionalId,
   alarmId: optionalId,
-  limit: z.coerce.number({ invalid_type_error: 'must be a number' }).int().min(1, 'must be at least 1').max(500, 'must be at most 500').default(100),
+  limit: listLimit(500, 100),
 })
 export type ShiftLogQuery = z.infer<typeof shiftLogQuerySchema>
 

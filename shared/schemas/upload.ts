@@ -33,8 +33,8 @@ export const uploadPreviewQuerySchema = z.object({
   complete: flag,
 })
 
-export const uploadImportQuerySchema = z.object({
-  siteId,
+/** How a CSV file's columns are read: the query of every route that takes a historian file. */
+export const csvColumnsQueryShape = {
   delimiter,
   format: z.enum(['long', 'wide'], { errorMap: () => ({ message: 'must be long or wide' }) }),
   timeColumn: column,
@@ -45,10 +45,14 @@ export const uploadImportQuerySchema = z.object({
   tagColumns: textField().trim().optional()
     .transform(s => (s ? s.split(',').map(c => c.trim()).filter(Boolean) : undefined)),
   timeZone: textField().trim().refine(isTimeZone, 'must be an IANA time-zone name such as Europe/London').optional(),
-  dryRun: flag,
-}).superRefine((q, ctx) => {
+}
+
+/** The long format names its tag and value columns. */
+export function refineCsvColumns(q: { format: 'long' | 'wide', tagColumn?: string, valueColumn?: string }, ctx: z.RefinementCtx) {
   if (q.format !== 'long') return
   for (const key of ['tagColumn', 'valueColumn'] as const)
     if (!q[key]) ctx.addIssue({ code: 'custom', path: [key], message: 'is required for the long format' })
-})
+}
+
+export const uploadImportQuerySchema = z.object({ siteId, ...csvColumnsQueryShape, dryRun: flag }).superRefine(refineCsvColumns)
 export type UploadImportQuery = z.infer<typeof uploadImportQuerySchema>

@@ -26,7 +26,8 @@ export interface UploadSummary {
 export type UploadEvent =
   | { type: 'progress', rowsRead: number, stored: number, duplicates: number, rejectedCount: number }
   | { type: 'summary', summary: UploadSummary }
-  | { type: 'error', message: string, summary: UploadSummary }
+  /** message: for the person importing; reason: what stopped the read, alone. */
+  | { type: 'error', message: string, reason: string, summary: UploadSummary }
 
 /** POST /api/uploads/preview: the start of a file as the import would read it, with guesses. */
 export interface UploadPreview {

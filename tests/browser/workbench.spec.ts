@@ -136,7 +136,7 @@ describe('engineer tunes a new tag on the workbench', () => {
     await page.getByRole('link', { name: 'Plant model' }).click()
     await page.getByRole('link', { name: 'Replays' }).click()
     await page.getByRole('heading', { name: 'Workbench · replays' }).waitFor()
-    const replayForm = page.getByRole('form', { name: 'New replay' })
+    const replayForm = page.getByRole('form', { name: 'New replay', exact: true })
     await replayForm.getByRole('combobox', { name: /^Tag/ }).selectOption({ label: `${CODE} — ${DESCRIPTION}` })
     await replayForm.getByRole('textbox', { name: /^From/ }).fill(typedPlantTime(Date.parse(rows[0]!.time) - 60_000))
     await replayForm.getByRole('textbox', { name: /^To \(/ }).fill(typedPlantTime(FIXED_START_MS))

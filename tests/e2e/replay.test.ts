@@ -44,6 +44,7 @@ async function waitForReplay(id: number) {
 const replayToEnd = async (body: Record<string, unknown>) => waitForReplay(await askReplay(body))
 
 type Firing = { ruleId: number, time: number, change: string }
+const byTime = (a: { ruleId: number, ms: number }, b: { ruleId: number, ms: number }) => a.ms - b.ms || a.ruleId - b.ruleId
 const activations = (firings: Firing[]) => firings.filter(f => f.change === 'activate').map(f => ({ ruleId: f.ruleId, ms: Math.round(f.time * 1000) }))
 
 describe('replay of stored history', () => {
@@ -75,7 +76,6 @@ describe('replay of stored history', () => {
     expect(report.result.samples).toBe(rows.length)
     const replayed = activations(report.result.firings)
     const stored = live.map(r => ({ ruleId: Number(r.rule_id), ms: new Date(r.condition_time).getTime() }))
-    const byTime = (a: { ruleId: number, ms: number }, b: { ruleId: number, ms: number }) => a.ms - b.ms || a.ruleId - b.ruleId
     expect(replayed.sort(byTime)).toEqual(stored.sort(byTime))
     // The replay's alarms are only its report: nothing was added to the live alarm history.
     const [after] = await sql`select count(*)::int as n from alarm_events`
@@ -92,6 +92,119 @@ describe('replay of stored history', () => {
     expect(report.result.chart.pointTime.length).toBe(report.result.evaluations)
     const [audit] = await sql`select detail from audit_log where action = 'replay.create' and detail->>'id' = ${String(report.id)}`
     expect(audit, 'the replay was not audited').toBeTruthy()
+  }, 600_000)
+
+  // A settings version saved between two ticks governs what the live task evaluated after it, though
+  // the samples it evaluated are timed before the save (back-filled history). The replay takes each
+  // version over the samples it governed, read from the points it produced, so it gives the live
+  // evaluations at the same times and the same alarms. The outside reference is what the live
+  // pipeline stored.
+  it('runs each settings version over the history it governed live', async () => {
+    await sql`insert into units (site_id, code, name, kind) select site_id, 'B-382', 'Replay load bus, re-tuned', kind from units where code = 'B-300'`
+    const voltage = await tagWithDemoRules(sql, engineer, 'EI-382', 'B-382', 2, 'EI-301')
+    const { samples, tipMs } = busToCollapse()
+    const shift = FIXED_START_MS - tipMs!
+    const rows = samples.filter(s => s.tag === 'EI-301' && s.time <= tipMs!).map(s => ({ tag: 'EI-382', time: iso(s.time + shift), value: s.value }))
+    const half = Math.floor(rows.length / 2)
+    await ingestAll(rows.slice(0, half))
+    await runServerTask('indicators:refresh')
+    const first = (await call(`/api/tags/${voltage}/indicator-settings`, { cookie: engineer })).body.current
+    const saved = await call(`/api/tags/${voltage}/indicator-settings`, {
+      method: 'PUT', cookie: engineer, json: { settings: { ...first, evaluateEvery: 30 }, reason: 'fewer evaluations' },
+    })
+    expect(saved.status, JSON.stringify(saved.body)).toBe(200)
+    await ingestAll(rows.slice(half))
+    await runServerTask('indicators:refresh')
+    const livePoints = await sql`select extract(epoch from time)::float8 as t, settings_version_id as v from indicator_points
+      where tag_id = ${voltage} order by time`
+    expect(new Set(livePoints.map(p => p.v)).size, 'the live task did not use both versions').toBe(2)
+    const live = await sql`select a.rule_id, e.condition_time from alarm_events e join alarms a on a.id = e.alarm_id
+      where a.tag_id = ${voltage} and e.event = 'activate' order by e.condition_time, a.rule_id`
+
+    const report = await replayToEnd({ tagId: voltage, from: rows[0]!.time, to: iso(FIXED_START_MS) })
+    expect(report.state, report.error).toBe('done')
+    expect(report.settingsInForce.map((e: { versionId: number }) => e.versionId)).toEqual([...new Set(livePoints.map(p => p.v))])
+    expect(report.result.evaluations).toBe(livePoints.length)
+    expect(report.result.chart.pointTime.map((t: number) => Math.round(t * 1000))).toEqual(livePoints.map(p => Math.round(p.t * 1000)))
+    const stored = live.map(r => ({ ruleId: Number(r.rule_id), ms: new Date(r.condition_time).getTime() }))
+    expect(activations(report.result.firings).sort(byTime)).toEqual(stored.sort(byTime))
+
+    // Replayed with the first version throughout instead, the second half has the first one's spacing.
+    const alternative = await replayToEnd({ tagId: voltage, from: rows[0]!.time, to: iso(FIXED_START_MS), settings: first })
+    expect(alternative.state, alternative.error).toBe('done')
+    expect(alternative.settingsInForce).toBeNull()
+    expect(alternative.result.evaluations).toBeGreaterThan(livePoints.length)
+  }, 600_000)
+
+  // A historian file instead of stored history: the same bus collapse as a CSV for a tag with no
+  // samples. It must give what the stored-history replay of the same readings gave (the first test's
+  // outside reference is the live pipeline), keep the plant's history untouched, and refuse, line
+  // by line, a reading of another tag and a second, different reading at a time already given.
+  it('replays a historian file without storing it, as it replays the same stored history', async () => {
+    await sql`insert into units (site_id, code, name, kind) select site_id, 'B-383', 'Replay load bus, from a file', kind from units where code = 'B-300'`
+    const fileTag = await tagWithDemoRules(sql, engineer, 'EI-383', 'B-383', 2, 'EI-301')
+    const historyTag = await tagWithDemoRules(sql, engineer, 'EI-384', 'B-383', 2, 'EI-301')
+    const { samples, tipMs } = busToCollapse()
+    const shift = FIXED_START_MS - tipMs!
+    const readings = samples.filter(s => s.tag === 'EI-301' && s.time <= tipMs!).map(s => ({ time: iso(s.time + shift), value: s.value }))
+    await ingestAll(readings.map(r => ({ tag: 'EI-384', ...r })))
+    const lines = readings.map(r => `${r.time},EI-383,${r.value}`)
+    lines.splice(10, 0, `${readings[5]!.time},EI-383,${readings[5]!.value + 1}`, `${readings[5]!.time},EI-301,${readings[5]!.value}`)
+    const csv = ['time,tag,value', ...lines].join('\n')
+    const query = new URLSearchParams({
+      tagId: String(fileTag), format: 'long', timeColumn: 'time', tagColumn: 'tag', valueColumn: 'value', eventTime: iso(FIXED_START_MS),
+    })
+    const created = await call(`/api/replays/upload?${query}`, { method: 'POST', cookie: engineer, headers: { 'content-type': 'text/csv' }, body: csv })
+    expect(created.status, JSON.stringify(created.body)).toBe(201)
+    expect(created.body.advisory).toBe(ADVISORY_CAUTION)
+    expect(created.body.file).toMatchObject({ rowsRead: readings.length + 2, readings: readings.length, rejectedCount: 2 })
+    expect(created.body.file.rejections.map((r: { line: number, column: string }) => [r.line, r.column])).toEqual([[12, 'value'], [13, 'tag']])
+    const fromFile = await waitForReplay(created.body.id)
+    const fromHistory = await replayToEnd({ tagId: historyTag, from: readings[0]!.time, to: iso(FIXED_START_MS), eventTime: iso(FIXED_START_MS) })
+    expect([fromFile.state, fromHistory.state], fromFile.error ?? fromHistory.error).toEqual(['done', 'done'])
+    expect(fromFile.source).toBe('upload')
+    expect(fromFile.result.samples).toBe(readings.length)
+    const ruleName = (report: { rules: { id: number, name: string }[] }, id: number) => report.rules.find(r => r.id === id)!.name.replace(/ \(EI-38\d\)$/, '')
+    const named = (report: { rules: { id: number, name: string }[], result: { firings: Firing[] } }) =>
+      report.result.firings.map(f => ({ rule: ruleName(report, f.ruleId), time: f.time, change: f.change }))
+    expect(named(fromFile)).toEqual(named(fromHistory))
+    expect(fromFile.result.leadTimeS).toBe(fromHistory.result.leadTimeS)
+    expect(fromFile.result.leadTimeS).toBeGreaterThan(0)
+    const [stored] = await sql`select count(*)::int as n from samples where tag_id = ${fileTag}`
+    expect(stored!.n, 'a replay file reached the plant history').toBe(0)
+    const [kept] = await sql`select count(*)::int as n from replay_samples where replay_id = ${created.body.id}`
+    expect(kept!.n).toBe(readings.length)
+
+    // The same file again under other settings, as the report's "same file, other settings" asks.
+    const settings = (await call(`/api/tags/${fileTag}/indicator-settings`, { cookie: engineer })).body.current
+    const again = await replayToEnd({
+      tagId: fileTag, from: readings[0]!.time, to: iso(FIXED_START_MS), fileOf: created.body.id, settings: { ...settings, evaluateEvery: 40 },
+    })
+    expect(again.state, again.error).toBe('done')
+    expect(again.source).toBe('upload')
+    expect(again.result.samples).toBe(readings.length)
+    expect(again.result.evaluations).toBe(Math.floor(readings.length / 40))
+    const noFile = await call('/api/replays', { method: 'POST', cookie: engineer, json: { tagId: fileTag, from: readings[0]!.time, to: iso(FIXED_START_MS), fileOf: fromHistory.id } })
+    expect(noFile.status).toBe(400)
+    expect(noFile.body.message).toContain('fileOf')
+
+    const bad: [string, string][] = [
+      [`tagId=${fileTag}&format=long&timeColumn=time&tagColumn=tag`, 'valueColumn'],
+      [`tagId=${fileTag}&format=long&timeColumn=when&tagColumn=tag&valueColumn=value`, 'timeColumn'],
+      [`tagId=999999&format=long&timeColumn=time&tagColumn=tag&valueColumn=value`, 'tagId'],
+      [`${query}&warningWindowMinutes=abc`, 'warningWindowMinutes'],
+      [`tagId=${fileTag}&format=long&timeColumn=time&tagColumn=tag&valueColumn=value&eventTime=${encodeURIComponent('2020-01-01T00:00:00Z')}`, 'eventTime'],
+    ]
+    for (const [q, field] of bad) {
+      const res = await call(`/api/replays/upload?${q}`, { method: 'POST', cookie: engineer, headers: { 'content-type': 'text/csv' }, body: csv })
+      expect(res.status, q).toBe(400)
+      expect(res.body.message, q).toContain(field)
+    }
+    const oneLine = await call(`/api/replays/upload?${query}`, { method: 'POST', cookie: engineer, headers: { 'content-type': 'text/csv' }, body: `time,tag,value\n${lines[0]}` })
+    expect(oneLine.status).toBe(400)
+    expect(oneLine.body.message).toContain('body')
+    const [replays] = await sql`select count(*)::int as n from replays where tag_id = ${fileTag}`
+    expect(replays!.n, 'a refused file left a replay behind').toBe(2)
   }, 600_000)
 
   // The steady feed tank (two OU loops, docs/science.md §S2.3): its stability never changes. The
@@ -126,6 +239,32 @@ describe('replay of stored history', () => {
     expect(own.result.evaluations).toBe(Math.floor(rows.length / 20))
     expect(other.result.evaluations).toBe(Math.floor(rows.length / 40))
     expect((await call(`/api/tags/${tag}/indicator-settings`, { cookie: engineer })).body.current.evaluateEvery).toBe(20)
+  }, 600_000)
+
+  // A replay whose job the queue has given up (its retries spent in a long database outage, or the
+  // job cancelled) would otherwise show "running" for ever; the sweep marks it failed and leaves
+  // alone one whose job is still live. Job states are pg-boss's own (pg-boss 10 README, "Job states").
+  it('marks failed a replay whose job the queue gave up, and only that one', async () => {
+    const [tag] = await sql`select id, site_id from tags where code = 'EI-381'`
+    const insertRunning = (jobId: string) => sql`insert into replays (site_id, tag_id, from_time, to_time, warning_window_s, settings, rules, state, job_id)
+      select ${tag!.site_id}, ${tag!.id}, '2026-01-01T00:00:00Z', '2026-01-01T01:00:00Z', 7200, r.settings, '[]'::jsonb, 'running', ${jobId}
+      from replays r where r.tag_id = ${tag!.id} limit 1 returning id`
+    const [gone] = await insertRunning('8d0cba2e-5d0f-4a53-9a57-1d7e0a6f2c11')
+    // A finished job (this one completed) is never run again either.
+    const [live] = await sql`select id, job_id from replays where job_id is not null and state = 'done' limit 1`
+    const [failedJob] = await insertRunning(live!.job_id)
+    await runServerTask('replays:sweep')
+    const rows = await sql`select id, state, error from replays where id in (${gone!.id}, ${failedJob!.id}) order by id`
+    expect(rows.map(r => r.state)).toEqual(['failed', 'failed'])
+    expect(rows[0]!.error).toContain('gave this replay up')
+    const [done] = await sql`select state from replays where id = ${live!.id}`
+    expect(done!.state).toBe('done')
+
+    // A replay whose job is still waiting is left as it is.
+    const waiting = await askReplay({ tagId: tag!.id, from: '2026-01-01T00:00:00Z', to: '2026-01-01T01:00:00Z' })
+    await runServerTask('replays:sweep')
+    const report = await waitForReplay(waiting)
+    expect(report.error ?? '').not.toContain('gave this replay up')
   }, 600_000)
 
   it('refuses bad requests naming the field, and callers without the engineer role', async () => {

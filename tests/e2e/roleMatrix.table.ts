@@ -117,6 +117,7 @@ export const ROLE_MATRIX: Record<string, MatrixEntry> = {
   'GET /api/replays/:id': { expect: CONFIGURE, id: 'replay' },
   'GET /api/replays': { expect: CONFIGURE },
   'POST /api/replays': { expect: CONFIGURE },
+  'POST /api/replays/upload': { expect: CONFIGURE, body: 'csv' },
 
   'PUT /api/review/alert-outcomes/:id': { expect: REVIEW, id: 'alert' },
   'GET /api/review/health': { expect: VIEW },

@@ -1,7 +1,5 @@
 import { Readable } from 'node:stream'
 import { uploadImportQuerySchema } from '#shared/schemas/upload'
-import { csvEncodingProblem } from '#shared/utils/csvLayout'
-import { planColumns } from '#shared/utils/csvSamples'
 
 // Body: the CSV file itself, streamed (never buffered). Answer: NDJSON lines, progress then a
 // summary, so a million-row file shows how far it has got.
@@ -11,18 +9,7 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   const site = await findSite(db, query.siteId)
   if (!site) throw createError({ statusCode: 400, message: `siteId: no site with id ${query.siteId}` })
-  const source = openCsvSource(limitedBodyStream(event), query.delimiter)
-  const refuse = (message: string, statusCode = 400): never => {
-    source.discard()
-    throw createError({ statusCode, message })
-  }
-  const first = await source.next().catch((err: Error & { statusCode?: number }) =>
-    err.statusCode === 413 ? refuse(err.message, 413) : refuse(`body: the header line can't be read: ${err.message}`))
-  const header = first?.record.map(h => h.trim()) ?? refuse('body: the file is empty (no header line)')
-  const encoding = csvEncodingProblem(header.join(','))
-  if (encoding) refuse(`body: ${encoding}`, 415)
-  const planned = planColumns(header, query)
-  const plan = 'message' in planned ? refuse(`${planned.field}: ${planned.message}`) : planned
+  const { source, plan } = await openPlannedCsv(event, query)
   const timeZone = query.timeZone ?? site.timeZone
   const address = clientAddress(event)
 

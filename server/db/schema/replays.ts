@@ -1,8 +1,9 @@
 import { sql } from 'drizzle-orm'
-import { pgTable, serial, integer, doublePrecision, timestamp, text, jsonb, boolean, index, check } from 'drizzle-orm/pg-core'
-import { REPLAY_STATES, type ReplayState } from '../../../shared/alarms/vocabulary'
+import { pgTable, serial, integer, doublePrecision, timestamp, text, jsonb, boolean, index, check, smallint, primaryKey } from 'drizzle-orm/pg-core'
+import { REPLAY_SOURCES, REPLAY_STATES, type ReplaySource, type ReplayState } from '../../../shared/alarms/vocabulary'
 import type { IndicatorSettings } from '../../../shared/pipeline/indicatorDefaults'
 import type { ReplayResult, ReplayRule } from '../../../shared/pipeline/replayOutcome'
+import type { SettingsInForce } from '../../../shared/pipeline/settingsInForce'
 import { oneOf } from './checks'
 import { sites, tags } from './plant'
 import { users } from './users'
@@ -24,6 +25,15 @@ export const replays = pgTable('replays', {
   /** true: the engineer's alternative settings; false: the tag's own at the time of asking. */
   alternativeSettings: boolean('alternative_settings').notNull().default(false),
   settings: jsonb('settings').$type<IndicatorSettings>().notNull(),
+  /**
+   * The tag's own settings versions over the range, oldest first (null: `settings` throughout, as
+   * for alternative settings and uploaded files). The first is in force from the start of the data.
+   */
+  settingsInForce: jsonb('settings_in_force').$type<SettingsInForce[]>(),
+  /** Where the samples come from: the tag's stored history, or a file uploaded for this replay (replay_samples). */
+  source: text('source').$type<ReplaySource>().notNull().default('history'),
+  /** The pg-boss job working it, so a replay whose job gave up can be told from one still waiting. */
+  jobId: text('job_id'),
   rules: jsonb('rules').$type<ReplayRule[]>().notNull(),
   state: text('state').$type<ReplayState>().notNull().default('queued'),
   /** Share of the range's samples evaluated, 0 to 1. */
@@ -39,9 +49,19 @@ export const replays = pgTable('replays', {
 }, t => [
   index('replays_created').on(t.createdAt),
   check('replays_state', oneOf(t.state, REPLAY_STATES)),
+  check('replays_source', oneOf(t.source, REPLAY_SOURCES)),
   check('replays_range', sql`${t.fromTime} < ${t.toTime}`),
   check('replays_progress', sql`${t.progress} >= 0 and ${t.progress} <= 1`),
   check('replays_warning_window', sql`${t.warningWindowS} > 0`),
 ])
 
 export type ReplayRow = typeof replays.$inferSelect
+
+// The samples of a historian file uploaded for one replay: kept apart from the plant's history,
+// which a replay never changes, and removed with the replay.
+export const replaySamples = pgTable('replay_samples', {
+  replayId: integer('replay_id').notNull().references(() => replays.id, { onDelete: 'cascade' }),
+  time: timestamp('time', { withTimezone: true, mode: 'date' }).notNull(),
+  value: doublePrecision('value').notNull(),
+  quality: smallint('quality').notNull().default(0),
+}, t => [primaryKey({ columns: [t.replayId, t.time] })])

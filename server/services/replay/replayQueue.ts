@@ -54,11 +54,26 @@ export async function stopReplayQueue(): Promise<void> {
   await boss?.stop({ graceful: false, wait: false })
 }
 
-/** Queues a replay in the caller's transaction, so the replay row and its job commit together. */
-export async function enqueueReplay(tx: DbTransaction, replayId: number): Promise<void> {
+/** Queues a replay in the caller's transaction, so the replay row and its job commit together; answers the job's id. */
+export async function enqueueReplay(tx: DbTransaction, replayId: number): Promise<string> {
   // An instance without the worker (BRINKLINE_REPLAY_WORKER=0) still queues: another one works the job.
   const boss = await startReplayQueue()
-  await boss.send(QUEUE, { replayId } satisfies ReplayJob, { db: transactionExecutor(tx), singletonKey: String(replayId) })
+  const jobId = await boss.send(QUEUE, { replayId } satisfies ReplayJob, { db: transactionExecutor(tx), singletonKey: String(replayId) })
+  if (!jobId) throw new Error(`replay ${replayId} is already queued`)
+  return jobId
+}
+
+/** Job states after which pg-boss will not run the job again. */
+const FINISHED_JOB_STATES = new Set(['completed', 'cancelled', 'failed'])
+
+/**
+ * Whether pg-boss has given up a replay's job (failed through its retries, cancelled, or gone),
+ * so a replay row still queued or running will never move again.
+ */
+export async function replayJobGivenUp(jobId: string): Promise<boolean> {
+  const boss = await startReplayQueue()
+  const job = await boss.getJobById(QUEUE, jobId, { includeArchive: true })
+  return !job || FINISHED_JOB_STATES.has(job.state)
 }
 
 /**

@@ -2,12 +2,13 @@ import { eq } from 'drizzle-orm'
 import { INACTIVE } from '#shared/alarms/conditionTracker'
 import type { EvaluationPoint } from '#shared/pipeline/evaluateRecord'
 import { replayConditions, tagObservations } from '#shared/pipeline/ruleReplay'
+import { entryAt } from '#shared/pipeline/settingsInForce'
 import { replayOutcome, type ReplayChart, type ReplayFiring, type ReplayResult } from '#shared/pipeline/replayOutcome'
 import { MAX_REPLAY_SAMPLES } from '#shared/schemas/replay'
 import { bucketSamples, toJsonNumbers } from '#shared/utils/timeBuckets'
 import { replays, tags, type ReplayRow } from '../../db/schema'
 import type { Db } from '../../utils/db'
-import { isDatabaseUnavailable } from '../../utils/dbUnavailable'
+import { isDatabaseUnavailable, untilDatabaseAnswers } from '../../utils/dbUnavailable'
 import { evaluateRecords } from '../pipeline/recordEvaluation'
 import { historySamples } from '../pipeline/tagBatchLoad'
 
@@ -31,8 +32,8 @@ const finiteOrNull = (x: number) => (Number.isFinite(x) ? x : null)
  * go through the live engine (shared/pipeline/evaluateRecord on the server's evaluation pool) in
  * tick-sized steps and through the tag's rules as the tick feeds them (shared/pipeline/ruleReplay),
  * in time order, with the progress stored after each step. Nothing is written to the live
- * tables: the replay's alarms are only its result. A database outage is thrown so the queue
- * retries the job; any other failure is stored on the replay.
+ * tables: the replay's alarms are only its result. A database outage is thrown, once the database
+ * is back, so the queue retries the job; any other failure is stored on the replay.
  */
 export async function runReplay(db: Db, id: number): Promise<void> {
   const [replay] = await db.update(replays)
@@ -44,7 +45,12 @@ export async function runReplay(db: Db, id: number): Promise<void> {
     await db.update(replays).set({ state: 'done', progress: 1, result, finishedAt: new Date() }).where(eq(replays.id, id))
   }
   catch (err) {
-    if (isDatabaseUnavailable(err)) throw err
+    if (isDatabaseUnavailable(err)) {
+      // The queue records the retry in the database: hand the error back only once it answers,
+      // or the job would sit "active" (and the replay "running") until pg-boss's expiry, hours on.
+      await untilDatabaseAnswers(() => db.$sql`select 1`)
+      throw err
+    }
     if (!(err instanceof ReplayRefused)) console.error(`[replay] replay ${id} failed:`, err)
     const message = err instanceof Error ? err.message : String(err)
     await db.update(replays).set({ state: 'failed', error: message, finishedAt: new Date() }).where(eq(replays.id, id))
@@ -54,21 +60,33 @@ export async function runReplay(db: Db, id: number): Promise<void> {
 async function evaluateReplay(db: Db, replay: ReplayRow): Promise<ReplayResult> {
   const [tag] = await db.select({ samplePeriodS: tags.samplePeriodS }).from(tags).where(eq(tags.id, replay.tagId))
   if (!tag) throw new ReplayRefused(`tag ${replay.tagId} no longer exists`)
-  const { settings, rules } = replay
+  const { rules } = replay
   const period = tag.samplePeriodS
-  const loaded = await loadReplaySamples(db, replay, historySamples(settings, period))
+  const schedule = replay.settingsInForce ?? [{ afterS: null, versionId: 0, settings: replay.settings }]
+  const history = Math.max(...schedule.map(e => historySamples(e.settings, period)))
+  const loaded = replay.source === 'upload' ? await loadUploadedSamples(db, replay) : await loadReplaySamples(db, replay, history)
   const { times, values, qualities, first } = loaded
   const total = times.length - first
   await db.update(replays).set({ samplesTotal: total }).where(eq(replays.id, replay.id))
   // Evaluations fall on every evaluateEvery-th good sample the tag ever had, as in the live task.
-  let counter = loaded.samplesBefore % settings.evaluateEvery
+  let counter = loaded.samplesBefore % schedule[entryAt(schedule, times[first] ?? 0)]!.settings.evaluateEvery
   let previous: EvaluationPoint | null = null
   const states = rules.map(() => ({ ...INACTIVE }))
   const measures = rules.map(r => r.measure)
   const firings: ReplayFiring[] = []
   const points: EvaluationPoint[] = []
-  for (let from = first; from < times.length; from += STEP_SAMPLES) {
-    const to = Math.min(times.length, from + STEP_SAMPLES)
+  for (let from = first; from < times.length;) {
+    // A step never spans two settings versions: each sample is evaluated with the version in force at its time.
+    const entry = entryAt(schedule, times[from]!)
+    const { settings } = schedule[entry]!
+    const nextAfter = schedule[entry + 1]?.afterS ?? Infinity
+    let to = Math.min(times.length, from + STEP_SAMPLES)
+    for (let i = from + 1; i < to; i++) {
+      if (times[i]! > nextAfter) {
+        to = i
+        break
+      }
+    }
     const start = Math.max(0, from - historySamples(settings, period))
     const t = times.subarray(start, to)
     const v = values.subarray(start, to)
@@ -83,6 +101,7 @@ async function evaluateReplay(db: Db, replay: ReplayRow): Promise<ReplayResult> 
     points.push(...evaluation!.points)
     const done = to - first
     await db.update(replays).set({ samplesDone: done, progress: done / total }).where(eq(replays.id, replay.id))
+    from = to
   }
   const span = {
     from: seconds(replay.fromTime), to: seconds(replay.toTime),
@@ -121,6 +140,20 @@ async function loadReplaySamples(db: Db, replay: ReplayRow, history: number) {
   const qualities = Uint8Array.from(rows, r => Number(r[2]))
   const first = times.findIndex(t => t >= seconds(replay.fromTime))
   return { times, values, qualities, first: first < 0 ? times.length : first, samplesBefore: counted!.before }
+}
+
+/** A file uploaded for the replay: all of its good samples, with no history before them. */
+async function loadUploadedSamples(db: Db, replay: ReplayRow) {
+  const rows = await db.$sql`
+    select extract(epoch from time)::float8 as t, value, quality from replay_samples
+    where replay_id = ${replay.id} and quality < 2 order by time`.values()
+  return {
+    times: Float64Array.from(rows, r => Number(r[0])),
+    values: Float64Array.from(rows, r => Number(r[1])),
+    qualities: Uint8Array.from(rows, r => Number(r[2])),
+    first: 0,
+    samplesBefore: 0,
+  }
 }
 
 function replayChart(

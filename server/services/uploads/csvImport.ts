@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm'
 import { sites } from '../../db/schema'
 import { MAX_LISTED_REJECTIONS, UPLOAD_BATCH_SAMPLES } from '#shared/schemas/upload'
 import { recordToSamples, validatePending, type ColumnPlan, type LineRejection, type PendingSample } from '#shared/utils/csvSamples'
+import type { RejectedSample, ValidSample } from '#shared/utils/sampleBatch'
 import type { UploadEvent, UploadSummary } from '#shared/types/upload'
 import type { CsvSource } from './csvSource'
 import type { Db } from '../../utils/db'
@@ -21,15 +22,21 @@ const emptySummary = (dryRun: boolean): UploadSummary => ({
   dryRun, rowsRead: 0, valid: 0, stored: 0, duplicates: 0, blankCells: 0, rejectedCount: 0, rejections: [], tags: {}, batchesCommitted: 0, durationMs: 0,
 })
 
+/** Where a batch of valid samples goes: the plant's history, unless a caller keeps them elsewhere. */
+export type SampleSink = (samples: ValidSample[], tagIds: Map<string, SiteTag>) =>
+  Promise<{ accepted: number, duplicates: number, conflicts: RejectedSample[] }>
+
 /**
  * Reads the records after the header, validates them in batches and (unless a dry run) stores
- * each batch before reading on. Yields progress, then a summary — or, when something fails
- * mid-file, an error with the summary of what was already committed.
+ * each batch before reading on — into the samples table, or into `store` (a replay's file).
+ * Yields progress, then a summary — or, when something fails mid-file, an error with the summary
+ * of what was already committed.
  */
 export async function* importCsvRecords(db: Db, input: {
-  source: CsvSource, plan: ColumnPlan, siteId: number, timeZone: string, dryRun: boolean
+  source: CsvSource, plan: ColumnPlan, siteId: number, timeZone: string, dryRun: boolean, store?: SampleSink
 }): AsyncGenerator<UploadEvent> {
   const { source, plan, siteId, timeZone, dryRun } = input
+  const store: SampleSink = input.store ?? ((samples, ids) => storeUploadedSamples(db, samples, ids))
   const started = Date.now()
   const summary = emptySummary(dryRun)
   const tagIds = new Map<string, SiteTag>()
@@ -63,10 +70,11 @@ export async function* importCsvRecords(db: Db, input: {
     for (const s of valid) summary.tags[s.tag] = (summary.tags[s.tag] ?? 0) + 1
     summary.valid += valid.length
     if (dryRun || valid.length === 0) return
-    const { accepted, duplicates, conflicts } = await storeUploadedSamples(db, valid, tagIds)
+    const { accepted, duplicates, conflicts } = await store(valid, tagIds)
     for (const c of conflicts) {
       const p = batch[c.index]!
-      reject({ line: p.line, column: p.columns.value, value: p.raw.value, reason: c.reason })
+      const field = c.field === 'tag' ? 'tag' : 'value'
+      reject({ line: p.line, column: p.columns[field], value: p.raw[field], reason: c.reason })
     }
     summary.valid -= conflicts.length
     summary.stored += accepted
@@ -103,6 +111,6 @@ export async function* importCsvRecords(db: Db, input: {
     source.discard()
     const message = `Stopped after ${summary.rowsRead} rows: ${(err as Error).message}. `
       + `${summary.batchesCommitted} ${summary.batchesCommitted === 1 ? 'batch' : 'batches'} (${summary.stored} new samples) committed; importing the file again is safe, stored samples count as duplicates.`
-    yield { type: 'error', message, summary: finish() }
+    yield { type: 'error', message, reason: (err as Error).message, summary: finish() }
   }
 }
