@@ -43,6 +43,9 @@ const WORKERS_OFF = { BRINKLINE_OPCUA_COLLECTOR: '0', BRINKLINE_REPLAY_WORKER: '
 export async function setupBuiltServer(env: Record<string, string> = {}, options: { port?: number } = {}) {
   const databaseUrl = await createFileDatabase()
   fileServerEnv = { NUXT_DATABASE_URL: databaseUrl, ...WORKERS_OFF, ...env }
+  // Registered here, while the file is being collected: a hook added later (from inside a
+  // beforeAll, where instances are usually started) would never run.
+  afterAll(() => Promise.all([...runningInstances].map(stop => stop('SIGKILL'))))
   await setup({
     rootDir: ROOT,
     build: false,
@@ -56,6 +59,11 @@ export async function setupBuiltServer(env: Record<string, string> = {}, options
 
 /** The env this file's first server was started with; another instance starts from the same. */
 let fileServerEnv: Record<string, string> | undefined
+/** Stops of the instances still running, so none outlives its file (it would hold memory and CPU). */
+const runningInstances = new Set<(signal: 'SIGTERM' | 'SIGKILL') => Promise<void>>()
+const runningChildren = new Set<ChildProcess>()
+// The last guard if the test process ends without its hooks (a crash, a timeout): no orphans.
+process.once('exit', () => { for (const child of runningChildren) child.kill('SIGKILL') })
 
 function freeLoopbackPort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -79,7 +87,7 @@ export interface ServerInstance {
  * One more instance of the same build on this file's database, as a second machine behind a load
  * balancer would run it (call after setupBuiltServer). The first server migrated and seeded, so
  * this one does not seed unless asked; sessions are sealed cookies, so a cookie from either
- * instance opens the other. Stopped after the file's tests if the test did not stop it.
+ * instance opens the other. Killed after the file's tests if the test did not stop it.
  */
 export async function startServerInstance(env: Record<string, string> = {}): Promise<ServerInstance> {
   if (!fileServerEnv) throw new Error('startServerInstance: call setupBuiltServer first')
@@ -92,12 +100,17 @@ export async function startServerInstance(env: Record<string, string> = {}): Pro
   })
   child.stdout!.on('data', (chunk: Buffer) => { output += chunk.toString() })
   child.stderr!.on('data', (chunk: Buffer) => { output += chunk.toString() })
-  const exited = new Promise<void>(resolve => child.once('exit', () => resolve()))
+  runningChildren.add(child)
+  const exited = new Promise<void>(resolve => child.once('exit', () => {
+    runningChildren.delete(child)
+    runningInstances.delete(stop)
+    resolve()
+  }))
   const stop = async (signal: 'SIGTERM' | 'SIGKILL' = 'SIGTERM') => {
     if (child.exitCode === null && child.signalCode === null) child.kill(signal)
     await exited
   }
-  afterAll(() => stop('SIGKILL'))
+  runningInstances.add(stop)
 
   const deadline = Date.now() + 180_000
   while (Date.now() < deadline) {
