@@ -1,3 +1,4 @@
+import postgres from 'postgres'
 import { ensureMigrated } from './0.migrate'
 import { OpcuaSupervisor } from '../services/opcua/supervisor'
 import { opcuaPkiDir } from '../services/opcua/plantClient'
@@ -14,6 +15,8 @@ export default defineNitroPlugin((nitroApp) => {
     maxBackoffMs: Number(process.env.BRINKLINE_OPCUA_MAX_BACKOFF_MS ?? 30_000),
     pkiDir: opcuaPkiDir(),
     ready: ensureMigrated,
+    // One connection of its own for the ownership locks (supervisor.ts says why not a reserved one).
+    lockSql: postgres(databaseUrl(), { max: 1, connect_timeout: 5, idle_timeout: 0, onnotice: () => {} }),
   })
   supervisor.start()
   console.log('[opcua] collector started')

@@ -1,6 +1,6 @@
 import { hostname } from 'node:os'
 import { randomBytes } from 'node:crypto'
-import type { ReservedSql } from 'postgres'
+import type { Sql } from 'postgres'
 import type { Db } from '../../utils/db'
 import { isDatabaseUnavailable } from '../../utils/dbUnavailable'
 import { Collector, type CollectorOptions } from './collector'
@@ -14,11 +14,18 @@ export interface SupervisorOptions extends CollectorOptions {
   pollMs: number
   /** Resolves once the schema is current (migrations run at start-up); retried each poll until it does. */
   ready: () => Promise<void>
+  /**
+   * A client of one connection (max 1) that holds the ownership locks, apart from the pool. Not a
+   * connection reserved from the pool: postgres.js 3.4 loses a query sent on a reserved connection
+   * the database has dropped (it throws inside the library and the promise never settles), which
+   * stalled the supervisor for good after a database restart.
+   */
+  lockSql: Sql
 }
 
 /**
  * Runs a collector for every enabled connection this instance owns. Ownership is a session-level
- * advisory lock held on one reserved database connection: whichever instance takes it first
+ * advisory lock held on a database connection of its own: whichever instance takes it first
  * collects, the others skip the connection, and if the owner dies PostgreSQL frees the lock and
  * another instance takes over (and backfills from the server's history). A configuration change
  * (config_version) restarts the collector; a disabled or deleted connection stops it.
@@ -27,7 +34,8 @@ export class OpcuaSupervisor {
   readonly owner = `${hostname()}:${process.pid}:${randomBytes(3).toString('hex')}`
   private readonly collectors = new Map<number, Collector>()
   private readonly reported = new Map<number, { reconnects: number, backfilled: number }>()
-  private lockSession: ReservedSql | undefined
+  /** Backend pid of the session holding this instance's locks: a new pid means that session (and its locks) ended. */
+  private lockPid: number | undefined
   private timer: ReturnType<typeof setTimeout> | undefined
   private stopped = false
 
@@ -47,7 +55,7 @@ export class OpcuaSupervisor {
     await Promise.all([...this.collectors.values()].map(c => c.stop()))
     await Promise.all([...this.collectors.values()].map(c => this.report(c)))
     this.collectors.clear()
-    this.lockSession?.release()
+    await this.options.lockSql.end({ timeout: 5 }).catch(() => {})
   }
 
   private async poll() {
@@ -60,9 +68,8 @@ export class OpcuaSupervisor {
       if (!config || config.configVersion !== collector.config.configVersion) await this.release(id)
     }
     for (const config of configs) {
-      if (this.collectors.has(config.id) || !this.lockSession) continue
-      const [row] = await this.lockSession<{ ok: boolean }[]>`select pg_try_advisory_lock(${OPCUA_LOCK}, ${config.id}) as ok`
-      if (!row?.ok) continue
+      if (this.collectors.has(config.id)) continue
+      if (!await this.tryLock(config.id)) continue
       const collector = new Collector(this.db, config, this.options)
       this.collectors.set(config.id, collector)
       this.reported.set(config.id, { reconnects: 0, backfilled: 0 })
@@ -72,22 +79,23 @@ export class OpcuaSupervisor {
   }
 
   /**
-   * Keeps the lock session alive. When the database dropped it (an outage), the locks went with
-   * it: a new session takes them again; a connection another instance took meanwhile is given up
-   * here, its buffered values flushed as far as possible (duplicates are harmless).
+   * Checks the lock session is the one that took the locks. After the database dropped it (an
+   * outage), the lock client has opened a new session without them: the locks are taken again
+   * there, and a connection another instance took meanwhile is given up here, its buffered values
+   * flushed as far as possible (duplicates are harmless).
    */
   private async holdLocks() {
-    if (this.lockSession) {
-      const alive = await this.lockSession`select 1`.then(() => true, () => false)
-      if (alive) return
-      this.lockSession.release()
-      this.lockSession = undefined
-    }
-    this.lockSession = await this.db.$sql.reserve()
+    const [row] = await this.options.lockSql<{ pid: number }[]>`select pg_backend_pid() as pid`
+    if (row!.pid === this.lockPid) return
+    this.lockPid = row!.pid
     for (const id of [...this.collectors.keys()]) {
-      const [row] = await this.lockSession<{ ok: boolean }[]>`select pg_try_advisory_lock(${OPCUA_LOCK}, ${id}) as ok`
-      if (!row?.ok) await this.release(id, false)
+      if (!await this.tryLock(id)) await this.release(id, false)
     }
+  }
+
+  private async tryLock(id: number): Promise<boolean> {
+    const [row] = await this.options.lockSql<{ ok: boolean }[]>`select pg_try_advisory_lock(${OPCUA_LOCK}, ${id}) as ok`
+    return row?.ok === true
   }
 
   private async release(id: number, unlock = true) {
@@ -97,8 +105,11 @@ export class OpcuaSupervisor {
       await collector.stop()
       await this.report(collector)
     }
-    const session = this.lockSession
-    if (unlock && session) await session`select pg_advisory_unlock(${OPCUA_LOCK}, ${id})`.catch(() => {})
+    // Session locks stack when taken twice (a session replaced between two of our queries): unlock until none is left.
+    for (let i = 0; unlock && i < 10; i++) {
+      const [row] = await this.options.lockSql<{ ok: boolean }[]>`select pg_advisory_unlock(${OPCUA_LOCK}, ${id}) as ok`.catch(() => [{ ok: false }])
+      if (!row?.ok) break
+    }
   }
 
   private async report(collector: Collector) {
