@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { dbId, displayNameField, JSON_MAX_BYTES_PER_CHAR, textField } from './fields'
+import { tagCreateSchema } from './plant'
 
 // What an admin may set on an OPC UA connection (issue 17 item 1). The collector reads these
 // (server/services/opcua/collector.ts); the status columns are its own and never set here.
@@ -84,3 +85,13 @@ export type OpcuaConnectionUpdate = z.output<typeof opcuaConnectionUpdateSchema>
 
 /** One step of a browse: the node whose children to list (the Objects folder when left out). */
 export const opcuaBrowseQuerySchema = z.object({ nodeId: nodeIdField.optional() }).strict()
+
+/**
+ * A tag made from a browsed variable and read from it: the tag under the workbench's own contract
+ * (ISA-5.1 code, range, unit), the node it reads, and the variable's display name as the server gave it.
+ */
+export const opcuaTagFromVariableSchema = z.object({
+  nodeId: nodeIdField,
+  displayName: textField().trim().max(200, 'must have at most 200 characters').default(''),
+  tag: tagCreateSchema,
+}).strict()

@@ -9,8 +9,9 @@ import { mkdirSync } from 'node:fs'
 import { join } from 'node:path'
 import {
   DataType, makeEUInformation, MessageSecurityMode, OPCUACertificateManager, OPCUAServer, SecurityPolicy,
-  StatusCodes, type StatusCode, type UAVariable,
+  StatusCodes, type StatusCode, type UAObject, type UAVariable,
 } from 'node-opcua'
+import { PLANT_SERVER_PATH, plantEndpointUrl } from '../../shared/demo/opcuaDemo'
 
 export interface PlantServerTag {
   code: string
@@ -47,8 +48,7 @@ const STATUS_OF: Record<PlantQuality, StatusCode> = {
   good: StatusCodes.Good, uncertain: StatusCodes.UncertainLastUsableValue, bad: StatusCodes.BadSensorFailure,
 }
 
-/** The node id a tag is served under: ns=1;s=<tag code>. */
-export const plantNodeId = (code: string) => `ns=1;s=${code}`
+export { plantNodeId } from '../../shared/demo/opcuaDemo'
 
 interface Reading { value: number, timeMs: number, quality: PlantQuality }
 
@@ -57,13 +57,14 @@ export class OpcuaPlantServer {
   readonly requests = new Map<string, number>()
   private server: OPCUAServer | undefined
   private variables = new Map<string, UAVariable>()
+  private unitFolders = new Map<string, UAObject>()
   // The plant's own record, outside the OPC UA server, so a server restart keeps its history as a
   // plant server with a historian would.
   private journal = new Map<string, Reading[]>()
 
   constructor(private readonly options: PlantServerOptions) {}
 
-  get endpointUrl() { return `opc.tcp://127.0.0.1:${this.options.port}/brinkline-plant` }
+  get endpointUrl() { return plantEndpointUrl(this.options.port) }
 
   /** How many requests that could change the plant arrived, by type. */
   plantChangingRequests(): Record<string, number> {
@@ -84,7 +85,7 @@ export class OpcuaPlantServer {
       port: this.options.port,
       hostname: '127.0.0.1',
       alternateHostname: ['127.0.0.1'],
-      resourcePath: '/brinkline-plant',
+      resourcePath: PLANT_SERVER_PATH,
       serverCertificateManager,
       userCertificateManager,
       disableDiscovery: true,
@@ -123,33 +124,47 @@ export class OpcuaPlantServer {
     this.variables.get(code)?.setValueFromSource({ dataType: DataType.Double, value }, STATUS_OF[quality], new Date(timeMs))
   }
 
+  /** Adds a tag to a unit, as a plant engineer would add a point; served at once when running, and after every restart. */
+  addTag(unitName: string, tag: PlantServerTag): void {
+    const unit = this.options.units.find(u => u.name === unitName)
+    if (!unit) throw new RangeError(`no unit ${unitName} on this server`)
+    unit.tags.push(tag)
+    const folder = this.unitFolders.get(unitName)
+    if (this.server && folder) this.addVariable(this.server, folder, tag)
+  }
+
   private buildAddressSpace(server: OPCUAServer): void {
     const addressSpace = server.engine.addressSpace!
     const namespace = addressSpace.getOwnNamespace()
     const plant = namespace.addFolder(addressSpace.rootFolder.objects, { browseName: 'Plant' })
+    this.unitFolders.clear()
     for (const unit of this.options.units) {
       const folder = namespace.addFolder(plant, { browseName: unit.name })
-      for (const tag of unit.tags) {
-        const variable = namespace.addAnalogDataItem({
-          componentOf: folder,
-          browseName: tag.code,
-          nodeId: `s=${tag.code}`,
-          displayName: tag.code,
-          description: tag.description,
-          dataType: 'Double',
-          engineeringUnitsRange: { low: tag.rangeLow, high: tag.rangeHigh },
-          engineeringUnits: makeEUInformation(tag.engineeringUnit, tag.engineeringUnit, tag.engineeringUnit),
-          minimumSamplingInterval: 0,
-        })
-        const history = this.options.historyValues ?? 0
-        if (history > 0) addressSpace.installHistoricalDataNode(variable, { maxOnlineValue: history })
-        if (!this.journal.has(tag.code)) this.journal.set(tag.code, [])
-        // Replay what the plant recorded before this start, oldest first, so history and the
-        // current value survive a restart.
-        for (const r of this.journal.get(tag.code)!)
-          variable.setValueFromSource({ dataType: DataType.Double, value: r.value }, STATUS_OF[r.quality], new Date(r.timeMs))
-        this.variables.set(tag.code, variable)
-      }
+      this.unitFolders.set(unit.name, folder)
+      for (const tag of unit.tags) this.addVariable(server, folder, tag)
     }
+  }
+
+  private addVariable(server: OPCUAServer, folder: UAObject, tag: PlantServerTag): void {
+    const addressSpace = server.engine.addressSpace!
+    const variable = addressSpace.getOwnNamespace().addAnalogDataItem({
+      componentOf: folder,
+      browseName: tag.code,
+      nodeId: `s=${tag.code}`,
+      displayName: tag.code,
+      description: tag.description,
+      dataType: 'Double',
+      engineeringUnitsRange: { low: tag.rangeLow, high: tag.rangeHigh },
+      engineeringUnits: makeEUInformation(tag.engineeringUnit, tag.engineeringUnit, tag.engineeringUnit),
+      minimumSamplingInterval: 0,
+    })
+    const history = this.options.historyValues ?? 0
+    if (history > 0) addressSpace.installHistoricalDataNode(variable, { maxOnlineValue: history })
+    if (!this.journal.has(tag.code)) this.journal.set(tag.code, [])
+    // Replay what the plant recorded before this start, oldest first, so history and the
+    // current value survive a restart.
+    for (const r of this.journal.get(tag.code)!)
+      variable.setValueFromSource({ dataType: DataType.Double, value: r.value }, STATUS_OF[r.quality], new Date(r.timeMs))
+    this.variables.set(tag.code, variable)
   }
 }

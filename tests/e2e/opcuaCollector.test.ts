@@ -57,8 +57,8 @@ async function storedAll(tag: string, count: number) {
   return eventually(`${count} samples of ${tag}`, async () => {
     const rows = await stored(tag)
     if (rows.length >= count) return rows
-    const [c] = await sql`select state, last_error from opcua_connections where id = ${connectionId}`
-    throw new Error(`${rows.length} stored; connection ${c!.state}, last error ${c!.last_error}`)
+    const [c] = await sql`select state, last_error, rejected_count, config_version from opcua_connections where id = ${connectionId}`
+    throw new Error(`${rows.length} stored; connection ${c!.state} (config ${c!.config_version}, ${c!.rejected_count} refused), last error ${c!.last_error}`)
   })
 }
 const expectedOf = (tag: string) => published.filter(p => p.tag === tag)
@@ -206,6 +206,10 @@ describe('OPC UA collector', { timeout: 400_000 }, () => {
     const found = (variables.body.children as { nodeId: string, displayName: string, nodeClass: string }[])
       .filter(c => c.nodeClass === 'Variable').map(c => [c.nodeId, c.displayName])
     expect(found).toEqual(TAGS.map(code => [`ns=1;s=${code}`, code]))
+    // What an AnalogItem carries (IEC 62541-8 §5.3.2: EngineeringUnits and EURange properties) and
+    // its Description attribute (Part 3 §5.2.8), as the test server declared them.
+    const op101 = (variables.body.children as { nodeId: string, facts: unknown }[]).find(c => c.nodeId === 'ns=1;s=OP-101')
+    expect(op101?.facts).toEqual({ description: 'Test OP-101', engineeringUnit: 'K', rangeLow: 0, rangeHigh: 1000 })
 
     const malformed = await browse('not a node')
     expect(malformed.status).toBe(400)
@@ -221,6 +225,45 @@ describe('OPC UA collector', { timeout: 400_000 }, () => {
     expect(unreachable.body.message).toMatch(/endpointUrl: /)
     expect((await call('/api/admin/opcua/999999/browse', { cookie: admin })).status).toBe(404)
     expect(plant.requests.get('BrowseRequest')).toBeGreaterThan(0)
+  })
+
+  it('makes a tag from a browsed variable and reads it at once, refusing what the workbench would', async () => {
+    const admin = await signInAs('admin')
+    const [unit] = await sql`select id from units where code = 'T-400'`
+    const make = (body: unknown) => call(`/api/admin/opcua/${connectionId}/tags`, { method: 'POST', cookie: admin, json: body })
+    const tag = { unitId: unit!.id, code: 'ti-104', description: 'Test OP-104', engineeringUnit: 'K', samplePeriodS: 1, rangeLow: 0, rangeHigh: 1000 }
+    // The workbench's own contract: ISA-5.1 code (shared/schemas/plant.ts), range high above low.
+    const badCode = await make({ nodeId: 'ns=1;s=OP-104', tag: { ...tag, code: 'reactor temp' } })
+    expect(badCode.status).toBe(400)
+    expect(badCode.body.message).toMatch(/tag\.code: /)
+    const badRange = await make({ nodeId: 'ns=1;s=OP-104', tag: { ...tag, rangeHigh: -1 } })
+    expect(badRange.status).toBe(400)
+    expect(badRange.body.message).toMatch(/tag\.rangeHigh: /)
+    const taken = await make({ nodeId: 'ns=1;s=OP-101', tag })
+    expect(taken.status).toBe(409)
+    expect(taken.body.message).toMatch(/^nodeId: /)
+    const sameCode = await make({ nodeId: 'ns=1;s=OP-104', tag: { ...tag, code: 'OP-101' } })
+    expect(sameCode.status).toBe(409)
+    expect(sameCode.body.message).toMatch(/tag\.code: /)
+    expect((await sql`select count(*)::int as n from tags where code = 'TI-104'`)[0]!.n).toBe(0)
+
+    plant.addTag('Test unit', { code: 'OP-104', description: 'Test OP-104', engineeringUnit: 'K', rangeLow: 0, rangeHigh: 1000 })
+    const made = await make({ nodeId: 'ns=1;s=OP-104', displayName: 'OP-104', tag })
+    expect(made.status).toBe(201)
+    expect(made.body.code).toBe('TI-104')
+    const audit = await sql`select action from audit_log where action in ('tag.create', 'opcua.mapping.add') order by id`
+    expect(audit.map(a => a.action)).toEqual(['tag.create', 'opcua.mapping.add'])
+    // The collector restarts on the new config version and subscribes to the new node.
+    const reading = { timeMs: T0 + 1000 * next++, value: 321.5 }
+    plant.publish('OP-104', reading.value, reading.timeMs)
+    const rows = await eventually('the new tag\'s value', async () => {
+      const got = await stored('TI-104')
+      if (got.length > 0) return got
+      const [c] = await sql`select state, state_since, owner, config_version, last_error from opcua_connections where id = ${connectionId}`
+      throw new Error(`none yet; ${JSON.stringify(c)}; plant sessions ${plant.sessionCount}, `
+        + `subscriptions made ${plant.requests.get('CreateSubscriptionRequest')}, monitored-item requests ${plant.requests.get('CreateMonitoredItemsRequest')}`)
+    })
+    expect(rows.map(r => [r.time.getTime(), r.value])).toEqual([[reading.timeMs, reading.value]])
   })
 
   it('never sent a request that could change the plant', () => {

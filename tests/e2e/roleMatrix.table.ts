@@ -72,6 +72,7 @@ export const ROLE_MATRIX: Record<string, MatrixEntry> = {
   'PATCH /api/admin/opcua/:id': { expect: ADMIN, id: 'opcuaConnection' },
   'PUT /api/admin/opcua/:id/mappings': { expect: ADMIN, id: 'opcuaConnection' },
   'GET /api/admin/opcua/:id/browse': { expect: ADMIN, id: 'opcuaConnection' },
+  'POST /api/admin/opcua/:id/tags': { expect: ADMIN, id: 'opcuaConnection' },
   'GET /api/admin/opcua': { expect: ADMIN },
   'POST /api/admin/opcua': { expect: ADMIN },
   'DELETE /api/admin/routes/:id': { expect: ADMIN, id: 'routeToDelete' },

@@ -1,17 +1,12 @@
 import { createError } from 'h3'
-import { BrowseDirection, NodeClass, NodeClassMask, resolveNodeId, StatusCodes, type ReferenceDescription } from 'node-opcua-client'
+import { BrowseDirection, NodeClass, NodeClassMask, resolveNodeId, StatusCodes, type ClientSession, type ReferenceDescription } from 'node-opcua-client'
 import type { CollectorConfig } from './connectionRecords'
 import { createPlantClient, userIdentityOf } from './plantClient'
+import type { BrowsedNode } from '#shared/opcua/browsedNode'
+import { readVariableFacts } from './variableFacts'
 
 // The admin's look into a plant server's address space, to pick the variables a connection reads
-// (issue 17). Read-only by construction: a session, Browse and BrowseNext, nothing else.
-
-export interface BrowsedNode {
-  nodeId: string
-  browseName: string
-  displayName: string
-  nodeClass: 'Object' | 'Variable'
-}
+// (issue 17). Read-only by construction: a session, Browse, BrowseNext and Read, nothing else.
 
 /** Where a browse starts when no node is given: the Objects folder (IEC 62541-5 §8.2.4, ns=0;i=85). */
 export const OBJECTS_FOLDER = 'ns=0;i=85'
@@ -63,14 +58,25 @@ async function browseWith(client: ReturnType<typeof createPlantClient>, config: 
       result = await session.browseNext(result.continuationPoint, false)
       references.push(...(result.references ?? []))
     }
-    return references.map(r => ({
-      nodeId: r.nodeId.toString(),
-      browseName: r.browseName.toString(),
-      displayName: r.displayName.text ?? r.browseName.name ?? '',
-      nodeClass: r.nodeClass === NodeClass.Variable ? 'Variable' as const : 'Object' as const,
-    }))
+    return await describe(session, references)
   }
   finally {
     await session.close().catch(() => {})
   }
+}
+
+async function describe(session: ClientSession, references: ReferenceDescription[]): Promise<BrowsedNode[]> {
+  const variables = references.filter(r => r.nodeClass === NodeClass.Variable).map(r => r.nodeId.toString())
+  const facts = await readVariableFacts(session, variables)
+  return references.map((r) => {
+    const nodeId = r.nodeId.toString()
+    const isVariable = r.nodeClass === NodeClass.Variable
+    return {
+      nodeId,
+      browseName: r.browseName.toString(),
+      displayName: r.displayName.text ?? r.browseName.name ?? '',
+      nodeClass: isVariable ? 'Variable' as const : 'Object' as const,
+      facts: isVariable ? facts.get(nodeId) ?? null : null,
+    }
+  })
 }
