@@ -158,8 +158,9 @@ describe('OPC UA collector', { timeout: 400_000 }, () => {
     // The status row is written on the supervisor's next round, which may fall between subscribing
     // (state connected) and the end of the backfill: wait for the round that counts it.
     const [c] = await eventually('status after the restart', async () => {
-      const rows = await sql`select state, reconnect_count, backfilled_count from opcua_connections where id = ${connectionId}`
-      return rows[0]!.state === 'connected' && Number(rows[0]!.reconnect_count) >= 1 && Number(rows[0]!.backfilled_count) > 0 ? rows : undefined
+      const rows = await sql`select state, state_since, reconnect_count, backfilled_count, last_error from opcua_connections where id = ${connectionId}`
+      if (rows[0]!.state === 'connected' && Number(rows[0]!.reconnect_count) >= 1 && Number(rows[0]!.backfilled_count) > 0) return rows
+      throw new Error(`status so far ${JSON.stringify(rows[0])}`)
     })
     expect(Number(c!.backfilled_count)).toBeGreaterThan(0)
   })
