@@ -77,6 +77,8 @@ function freeLoopbackPort(): Promise<number> {
 export interface ServerInstance {
   /** Base address, no trailing slash: `${instance.url}/api/...`. */
   url: string
+  /** Process id, as the instance names itself in rows it owns (e.g. an OPC UA connection's owner, host:pid:suffix). */
+  pid: number
   /** Everything the instance printed, for a test that reads its start-up lines. */
   logs: () => string
   /** Ends the process: SIGTERM lets it close; SIGKILL is a crash (nothing runs after it). */
@@ -116,7 +118,7 @@ export async function startServerInstance(env: Record<string, string> = {}): Pro
   while (Date.now() < deadline) {
     if (child.exitCode !== null) throw new Error(`server instance exited with ${child.exitCode}: ${output.slice(-2000)}`)
     const res = await fetch(`${url}/api/public/health`).catch(() => null)
-    if (res?.status === 200) return { url, logs: () => output, stop }
+    if (res?.status === 200) return { url, pid: child.pid!, logs: () => output, stop }
     await new Promise(resolve => setTimeout(resolve, 250))
   }
   await stop('SIGKILL')
