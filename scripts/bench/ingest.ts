@@ -33,7 +33,8 @@ async function copyRows(sql: import('postgres').Sql, rows: Row[]): Promise<numbe
   return performance.now() - t0
 }
 
-async function postRows(url: string, rows: Row[]): Promise<number> {
+/** Posts the rows in batches from `gateways` concurrent senders; the time it took, in ms. Also used by opcuaIngest.ts. */
+export async function postRows(url: string, rows: Row[], gateways = CONCURRENT_GATEWAYS): Promise<number> {
   const batches: Row[][] = []
   for (let i = 0; i < rows.length; i += BATCH) batches.push(rows.slice(i, i + BATCH))
   const t0 = performance.now()
@@ -47,7 +48,7 @@ async function postRows(url: string, rows: Row[]): Promise<number> {
       if (res.status !== 200 || body.accepted !== batch.length) throw new Error(`ingest answered ${res.status}: ${JSON.stringify(body).slice(0, 200)}`)
     }
   }
-  await Promise.all(Array.from({ length: CONCURRENT_GATEWAYS }, worker))
+  await Promise.all(Array.from({ length: gateways }, worker))
   return performance.now() - t0
 }
 
