@@ -75,6 +75,8 @@ export default defineNuxtConfig({
     // Scheduled pipeline ticks and mail sending, per instance (NUXT_PIPELINE_SCHEDULED=false …).
     pipeline: { scheduled: true },
     sender: { scheduled: true },
+    // The hourly storage job (partitions, raw windows, size snapshots; NUXT_STORAGE_SCHEDULED=false).
+    storage: { scheduled: true },
     session: { maxAge: 60 * 60 * 12 },
     // Inactivity limit beside the 12 h absolute one (NIST SP 800-63B AAL2: 30 minutes).
     sessionIdleMinutes: 30,
@@ -101,6 +103,7 @@ export default defineNuxtConfig({
       [process.env.NUXT_PIPELINE_CRON || '*/10 * * * * *']: ['indicators:refresh'],
       [process.env.NUXT_SENDER_CRON || '*/5 * * * * *']: ['notifications:send'],
       '30 * * * * *': ['replays:sweep'],
+      [process.env.NUXT_STORAGE_CRON || '0 7 * * * *']: ['storage:maintain'],
     },
     // Tag evaluations run on worker threads, which load their code from a file of the bundle.
     rollupConfig: { plugins: [workerChunkPlugin(evaluationWorker, 'workers/evaluate-record.mjs')] },

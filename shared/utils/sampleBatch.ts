@@ -38,6 +38,8 @@ export interface SampleClock {
   nowMs: number
   /** How far ahead of it a time may be; MAX_FUTURE_SKEW_MS when not given. */
   maxFutureMs?: number
+  /** Start of the site's raw window (shared/utils/rawWindow.ts); none when raw is kept indefinitely. */
+  rawFromMs?: number
 }
 
 const isoText = (ms: number) => new Date(ms).toISOString().replace('.000Z', 'Z')
@@ -71,6 +73,10 @@ export function parseSampleTime(raw: unknown, clock: SampleClock): number | stri
     return typeof raw === 'number' && raw > 0 && raw * 1000 >= SAMPLE_TIME_MIN_MS
       ? `epoch milliseconds ${raw} is before 2000-01-01 (seconds sent instead of milliseconds?)`
       : `is before 2000-01-01, the earliest plausible sample time`
+  }
+  if (clock.rawFromMs !== undefined && ms < clock.rawFromMs) {
+    return `${isoText(ms)} is older than this site's raw window (raw samples are kept from ${isoText(clock.rawFromMs)}): `
+      + 'that time is already folded into the per-minute archive'
   }
   const maxFuture = clock.maxFutureMs ?? MAX_FUTURE_SKEW_MS
   if (ms > clock.nowMs + maxFuture) {

@@ -4,7 +4,7 @@ import { detrend } from '../analysis/detrend'
 import { rollingIndicators } from '../analysis/windowAnalysis'
 import { evaluateRecord, type EvaluationPoint } from '../pipeline/evaluateRecord'
 import type { ChartIndicatorSettings as IndicatorSettings } from './chartIndicatorSettings'
-import { bucketOf, bucketSamples, toJsonNumbers, type BucketGrid } from './timeBuckets'
+import { bucketOf, bucketSamples, fillFromArchive, toJsonNumbers, type ArchivedMinutes, type BucketGrid } from './timeBuckets'
 
 export interface TrendSignificance { tau: number | null, p: number | null }
 
@@ -29,6 +29,8 @@ export interface TagSeriesView {
   significance: { ar1: TrendSignificance, variance: TrendSignificance } | null
   /** Raw samples in the displayed range (before downsampling). */
   sampleCount: number
+  /** Readings older than the raw window drawn from the per-minute archive (value line only). */
+  archivedSampleCount: number
 }
 
 export interface TagSeriesInput {
@@ -39,6 +41,11 @@ export interface TagSeriesInput {
   settings: IndicatorSettings
   /** The tag id: the live path seeds its bootstrap from it, so chart and live p agree. */
   seed: number
+  /**
+   * Per-minute archive rows for the part of the range raw samples no longer cover: they fill the
+   * value line's empty buckets. The indicators need raw samples, so they stay empty there.
+   */
+  archive?: ArchivedMinutes
 }
 
 const PROJECTION_POINTS = 40
@@ -46,6 +53,7 @@ const PROJECTION_POINTS = 40
 export function buildTagSeries(input: TagSeriesInput): TagSeriesView {
   const { times, values, grid, settings } = input
   const buckets = bucketSamples(times, values, grid)
+  const archivedSampleCount = input.archive ? fillFromArchive(buckets, input.archive, grid) : 0
   const { trend, residuals } = detrend(times, values, settings.detrend)
   const pick = (series: Float64Array) => Array.from(buckets.last, i => (i < 0 ? null : series[i]!))
   const sampleCount = countInGrid(times, grid)
@@ -71,6 +79,7 @@ export function buildTagSeries(input: TagSeriesInput): TagSeriesView {
       ? { ar1: { tau: judgement.tauAr1, p: judgement.pAr1 }, variance: { tau: judgement.tauVariance, p: judgement.pVariance } }
       : null,
     sampleCount,
+    archivedSampleCount,
   }
 }
 

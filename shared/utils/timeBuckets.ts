@@ -57,3 +57,36 @@ export function bucketSamples(times: ArrayLike<number>, values: ArrayLike<number
 export function toJsonNumbers(values: ArrayLike<number>): (number | null)[] {
   return Array.from(values, v => (Number.isFinite(v) ? v : null))
 }
+
+/** Per-minute archive rows (epoch seconds of each minute's start), oldest first. */
+export interface ArchivedMinutes {
+  minute: Float64Array
+  mean: Float64Array
+  min: Float64Array
+  max: Float64Array
+  /** Readings behind each row's figures: the weight of its mean. */
+  samples: Int32Array
+}
+
+/**
+ * Fills buckets no raw sample reached from the archive (raw samples older than the site's raw
+ * window live only there): the count-weighted mean, the smallest min and the largest max of the
+ * minutes whose middle falls in the bucket. Buckets with raw samples are left as they are.
+ * Returns how many readings the filled buckets stand for.
+ */
+export function fillFromArchive(buckets: Buckets, archive: ArchivedMinutes, grid: BucketGrid): number {
+  const sum = new Float64Array(grid.count)
+  const n = new Float64Array(grid.count)
+  let readings = 0
+  for (let i = 0; i < archive.minute.length; i++) {
+    const b = bucketOf(grid, archive.minute[i]! + 30)
+    if (b < 0 || buckets.last[b]! >= 0 || !(archive.samples[i]! > 0)) continue
+    sum[b]! += archive.mean[i]! * archive.samples[i]!
+    n[b]! += archive.samples[i]!
+    if (!(archive.min[i]! >= buckets.min[b]!)) buckets.min[b] = archive.min[i]!
+    if (!(archive.max[i]! <= buckets.max[b]!)) buckets.max[b] = archive.max[i]!
+    readings += archive.samples[i]!
+  }
+  for (let b = 0; b < grid.count; b++) if (n[b]! > 0) buckets.mean[b] = sum[b]! / n[b]!
+  return readings
+}

@@ -81,6 +81,8 @@ export const ROLE_MATRIX: Record<string, MatrixEntry> = {
   'POST /api/admin/routes/:id/test': { expect: ADMIN, id: 'route' },
   'GET /api/admin/routes': { expect: ADMIN },
   'POST /api/admin/routes': { expect: ADMIN },
+  'GET /api/admin/storage': { expect: ADMIN },
+  'PATCH /api/admin/storage/sites/:id': { expect: ADMIN, id: 'site' },
   'PATCH /api/admin/users/:id': { expect: ADMIN, id: 'spareUser' },
   'POST /api/admin/users/:id/end-sessions': { expect: ADMIN, id: 'spareUser' },
   'POST /api/admin/users/:id/password-reset': { expect: ADMIN, id: 'spareUser' },

@@ -14,5 +14,6 @@ export const MANUAL_TICKS_ENV = {
   BRINKLINE_TEST_ROUTES: '1',
   NUXT_PIPELINE_SCHEDULED: 'false',
   NUXT_SENDER_SCHEDULED: 'false',
+  NUXT_STORAGE_SCHEDULED: 'false',
   NUXT_PUBLIC_URL: 'http://brinkline.test:3000',
 }

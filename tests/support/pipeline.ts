@@ -5,7 +5,7 @@ import { call } from './session'
  * Runs one task now through the test-only route (the server needs BRINKLINE_TEST_ROUTES=1), on
  * the file's server or on another instance given by its base address.
  */
-export async function runServerTask(task: 'indicators:refresh' | 'notifications:send' | 'replays:sweep', base = '') {
+export async function runServerTask(task: 'indicators:refresh' | 'notifications:send' | 'replays:sweep' | 'storage:maintain', base = '') {
   const res = await call(`${base}/api/public/test/run-task`, { method: 'POST', json: { task } })
   if (res.status !== 200) throw new Error(`${task} answered ${res.status}: ${JSON.stringify(res.body)}`)
   return res.body.result

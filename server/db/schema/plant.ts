@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm'
 import { pgTable, serial, text, integer, doublePrecision, timestamp, unique, boolean, check, type AnyPgColumn } from 'drizzle-orm/pg-core'
 import { LOOP_ROLES, type LoopRole } from '../../../shared/plant/vocabulary'
+import { RAW_RETENTION_DAYS } from '../../../shared/schemas/storage'
 import { oneOf } from './checks'
 
 export const sites = pgTable('sites', {
@@ -10,10 +11,15 @@ export const sites = pgTable('sites', {
   company: text('company').notNull(),
   // IANA zone: times are stored in UTC and shown in the plant's local time.
   timeZone: text('time_zone').notNull().default('UTC'),
+  // Days raw samples are kept before the storage job folds them into the per-minute archive;
+  // null keeps them indefinitely (an upgrade never starts deleting history on its own).
+  rawRetentionDays: integer('raw_retention_days'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   // Retired rows stay with their history and can be restored; nothing in the plant model is deleted.
   retiredAt: timestamp('retired_at', { withTimezone: true }),
-})
+}, t => [
+  check('sites_raw_retention_days', sql`${t.rawRetentionDays} is null or ${t.rawRetentionDays} between ${sql.raw(String(RAW_RETENTION_DAYS.min))} and ${sql.raw(String(RAW_RETENTION_DAYS.max))}`),
+])
 
 export const units = pgTable('units', {
   id: serial('id').primaryKey(),

@@ -2,6 +2,7 @@ import type { TransactionSql } from 'postgres'
 import type { RejectedSample, TagBounds, ValidSample } from '#shared/utils/sampleBatch'
 import type { Db } from '../../utils/db'
 import { NO_NUL } from '#shared/schemas/fields'
+import { ensureSamplePartitions } from '../storage/partitions'
 
 // Arrays go over the wire as PostgreSQL array literals ('{1,2,3}') cast on the server side: one
 // text parameter per column, independent of the driver's array-type discovery. Every element is a
@@ -28,9 +29,10 @@ export interface InsertOutcome { accepted: number, conflicts: RejectedSample[] }
 
 /**
  * Inserts validated samples with one INSERT … SELECT FROM unnest(arrays) (not a row per query);
- * ON CONFLICT DO NOTHING on the (tag_id, time) key makes a retried batch harmless. A sample whose
- * key is taken by a different value or quality (stored before, or earlier in the same batch) is
- * a conflict, not a duplicate: the stored reading is kept and the sample is reported with both
+ * ON CONFLICT DO NOTHING on the (tag_id, time) key makes a retried batch harmless. The caller
+ * makes the batch's day partitions first (storage/partitions.ts ensureSamplePartitions). A
+ * sample whose key is taken by a different value or quality (stored before, or earlier in the
+ * same batch) is a conflict, not a duplicate: the stored reading is kept and the sample is reported with both
  * values, so nothing changes silently. Runs inside the caller's transaction.
  */
 export async function insertSamples(tx: TransactionSql, batch: ValidSample[], tagIdOf: Map<string, { id: number }>): Promise<InsertOutcome> {
@@ -90,6 +92,7 @@ function conflictWith(sample: ValidSample, storedValue: number, storedQuality: n
  * batches, not one transaction; a re-run after a failure is safe because the insert is idempotent.
  */
 export async function storeUploadedSamples(db: Db, samples: ValidSample[], tagIds: Map<string, { id: number }>) {
+  await ensureSamplePartitions(db, samples.map(s => s.timeMs))
   const { accepted, conflicts } = await db.$sql.begin(tx => insertSamples(tx, samples, tagIds))
   return { accepted, duplicates: samples.length - accepted - conflicts.length, conflicts }
 }

@@ -2,7 +2,8 @@ import type { TransactionSql } from 'postgres'
 import { validateSamples, type RejectedSample } from '#shared/utils/sampleBatch'
 import type { Db } from '../../utils/db'
 import { insertSamples, tagIdsByCode } from './ingest'
-import { sampleClock } from './sampleClock'
+import { ensureSamplePartitions } from '../storage/partitions'
+import { siteSampleClock } from './sampleClock'
 
 /** Conflicts (same tag and time, another reading) count as rejected: they were not stored. */
 export interface IngestCounts { accepted: number, duplicates: number, rejected: number }
@@ -22,7 +23,8 @@ export async function ingestBatch(db: Db, input: {
 }): Promise<{ accepted: number, duplicates: number, conflicts: number, rejected: RejectedSample[] }> {
   const codes = [...new Set(input.items.flatMap(i => (typeof (i as { tag?: unknown })?.tag === 'string' ? [((i as { tag: string }).tag).trim()] : [])))]
   const tagIds = await tagIdsByCode(db, input.siteId, codes)
-  const { valid, rejected } = validateSamples(input.items, code => tagIds.get(code), sampleClock(input.nowMs))
+  const { valid, rejected } = validateSamples(input.items, code => tagIds.get(code), await siteSampleClock(db, input.siteId, input.nowMs))
+  await ensureSamplePartitions(db, valid.map(s => s.timeMs))
   const { accepted, conflicts } = await db.$sql.begin(async (tx) => {
     const outcome = await insertSamples(tx, valid, tagIds)
     const counts = { accepted: outcome.accepted, duplicates: valid.length - outcome.accepted - outcome.conflicts.length, rejected: rejected.length + outcome.conflicts.length }

@@ -2,6 +2,7 @@ import { findActivationMarks } from '../alarms/activationMarks'
 import { SERIES_RANGES, type SeriesRange } from '#shared/schemas/series'
 import { chartIndicatorSettings, type StoredIndicatorSettings } from '#shared/utils/chartIndicatorSettings'
 import { buildTagSeries } from '#shared/utils/tagSeries'
+import type { ArchivedMinutes } from '#shared/utils/timeBuckets'
 import type { Db } from '../../utils/db'
 
 // Around a thousand buckets: about one per pixel of a full-width chart.
@@ -46,6 +47,19 @@ export async function loadSamplesSince(db: Db, tagId: number, fromSeconds: numbe
   return { times, values }
 }
 
+/**
+ * The per-minute archive of one tag over [fromSeconds, beforeSeconds): where raw samples have
+ * passed the site's raw window, a trend is drawn from these (server/services/storage/retention.ts).
+ */
+export async function loadArchiveBefore(db: Db, tagId: number, fromSeconds: number, beforeSeconds: number): Promise<ArchivedMinutes> {
+  const rows = beforeSeconds <= fromSeconds ? [] : await db.$sql`
+    select extract(epoch from minute)::float8, value_mean, value_min, value_max, samples from samples_minute
+    where tag_id = ${tagId} and minute >= to_timestamp(${Math.floor(fromSeconds / 60) * 60}) and minute < to_timestamp(${beforeSeconds}) and samples > 0
+    order by minute`.values()
+  const column = (i: number) => Float64Array.from(rows, r => Number(r[i]))
+  return { minute: column(0), mean: column(1), min: column(2), max: column(3), samples: Int32Array.from(rows, r => Number(r[4])) }
+}
+
 const CHARTED_MEASURES = ['value', 'variance', 'ar1', 'recovery_rate']
 
 /** The tag's enabled rules on charted measures (threshold lines) and its alarms' activations in the range (markers). */
@@ -82,8 +96,10 @@ export async function readTagSeriesBetween(db: Db, tagId: number, from: number, 
   const judged = (settings.live.trendWindowSamples * period) + settings.live.detrendBandwidthS
   // Samples after the range's end are left out: the view is the range as it was then.
   const { times, values } = await loadSamplesSince(db, tagId, Math.min(from - settings.windowSeconds - settings.live.detrendBandwidthS, to - judged), to)
+  // Older than the oldest raw sample left, the range is drawn from the archive, if it has it.
+  const archive = await loadArchiveBefore(db, tagId, from, times.length ? Math.min(times[0]!, to) : to)
   const count = options.atMostPerSample ? Math.max(2, Math.min(DISPLAY_POINTS, Math.floor((to - from) / period))) : DISPLAY_POINTS
-  const view = buildTagSeries({ times, values, grid: { from, to, count }, settings, seed: tagId })
+  const view = buildTagSeries({ times, values, grid: { from, to, count }, settings, seed: tagId, archive })
   const rules = await findTagRuleMarks(db, tagId, from, to)
   const { stored: _stored, ...header } = tag
   return {

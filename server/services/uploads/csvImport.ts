@@ -8,7 +8,7 @@ import type { CsvSource } from './csvSource'
 import type { Db } from '../../utils/db'
 import { storeUploadedSamples, tagIdsByCode } from '../ingest/ingest'
 import type { SiteTag } from '../ingest/ingest'
-import { sampleClock } from '../ingest/sampleClock'
+import { siteSampleClock } from '../ingest/sampleClock'
 
 /** A progress line after this many rows: often enough for a bar, rare enough to be free. */
 export const PROGRESS_EVERY_ROWS = 50_000
@@ -64,8 +64,9 @@ export async function* importCsvRecords(db: Db, input: {
         else unknownTags.add(code)
       }
     }
-    // Files carry history: the same clock bound as live data refuses times in the future.
-    const { valid, rejections } = validatePending(batch, code => tagIds.get(code), sampleClock())
+    // Files carry history: the same clock bounds as live data refuse times in the future and
+    // before the site's raw window.
+    const { valid, rejections } = validatePending(batch, code => tagIds.get(code), await siteSampleClock(db, siteId))
     rejections.forEach(reject)
     for (const s of valid) summary.tags[s.tag] = (summary.tags[s.tag] ?? 0) + 1
     summary.valid += valid.length

@@ -1,6 +1,6 @@
 import { z } from 'zod'
 
-const TASKS = ['indicators:refresh', 'notifications:send', 'replays:sweep'] as const
+const TASKS = ['indicators:refresh', 'notifications:send', 'replays:sweep', 'storage:maintain'] as const
 const runTaskSchema = z.object({ task: z.enum(TASKS, { errorMap: () => ({ message: `must be one of ${TASKS.join(', ')}` }) }) })
 
 // Test-only: runs one task now, so tests drive ticks deterministically. 404 unless the server

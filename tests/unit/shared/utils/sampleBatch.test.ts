@@ -77,3 +77,11 @@ describe('validateSamples: a tag code holding NUL', () => {
     expect(looked).toEqual(['TI-101'])
   })
 })
+
+describe('parseSampleTime: the site raw window', () => {
+  it('refuses a time before the window start (already folded into the archive) and takes one at it', () => {
+    const clock = { nowMs: Date.UTC(2026, 11, 4, 1), rawFromMs: Date.UTC(2026, 11, 2) }
+    expect(parseSampleTime('2026-12-01T23:59:59Z', clock)).toMatch(/older than this site's raw window/)
+    expect(parseSampleTime('2026-12-02T00:00:00Z', clock)).toBe(Date.UTC(2026, 11, 2))
+  })
+})

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { bucketOf, bucketSamples, toJsonNumbers } from '#shared/utils/timeBuckets'
+import { bucketOf, bucketSamples, fillFromArchive, toJsonNumbers } from '#shared/utils/timeBuckets'
 
 describe('bucketSamples', () => {
   const grid = { from: 0, to: 10, count: 5 }
@@ -22,5 +22,33 @@ describe('bucketSamples', () => {
 
   it('sends non-finite numbers as null', () => {
     expect(toJsonNumbers([1, Number.NaN, Number.POSITIVE_INFINITY])).toEqual([1, null, null])
+  })
+})
+
+describe('fillFromArchive', () => {
+  // Minutes of 0–60 s, 60–120 s, 120–180 s; buckets of 120 s. Combining per-minute summaries:
+  // the pooled mean is the count-weighted mean of the group means [common practice].
+  const grid = { from: 0, to: 240, count: 2 }
+  const archive = {
+    minute: Float64Array.from([0, 60, 120]),
+    mean: Float64Array.from([10, 20, 50]),
+    min: Float64Array.from([9, 15, 40]),
+    max: Float64Array.from([11, 30, 60]),
+    samples: Int32Array.from([1, 3, 4]),
+  }
+
+  it('fills empty buckets with the weighted mean, the smallest min and the largest max', () => {
+    const b = bucketSamples([], [], grid)
+    expect(fillFromArchive(b, archive, grid)).toBe(8)
+    expect(b.mean[0]).toBeCloseTo((10 * 1 + 20 * 3) / 4, 12)
+    expect([b.min[0], b.max[0]]).toEqual([9, 30])
+    expect([b.mean[1], b.min[1], b.max[1]]).toEqual([50, 40, 60])
+  })
+
+  it('leaves a bucket that has raw samples as the raw samples make it', () => {
+    const b = bucketSamples([130, 150], [1, 3], grid)
+    expect(fillFromArchive(b, archive, grid)).toBe(4)
+    expect([b.mean[1], b.min[1], b.max[1]]).toEqual([2, 1, 3])
+    expect(b.mean[0]).toBeCloseTo(17.5, 12)
   })
 })
