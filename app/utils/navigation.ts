@@ -18,4 +18,5 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/admin/opcua', label: 'OPC UA', capability: 'administer' },
   { to: '/admin/routes', label: 'Notification routes', capability: 'administer' },
   { to: '/admin/audit', label: 'Audit log', capability: 'administer' },
+  { to: '/admin/storage', label: 'Storage', capability: 'administer' },
 ]
