@@ -45,6 +45,19 @@ describe('GET /api/tags/:id/series', () => {
     expect(s.thresholds).toContainEqual(expect.objectContaining({ measure: 'value', comparison: 'above', threshold: 400, priority: 'urgent' }))
   })
 
+  it('draws a 30 s tag as an unbroken line: no bucket narrower than its sample period (issue 12 item 7)', async () => {
+    // [common practice] downsampling for display: a bucket narrower than the sampling interval
+    // is empty by construction, and an empty bucket is a gap in the line.
+    for (const range of ['1h', '6h'] as const) {
+      const s = (await call(`/api/tags/${ids['AI-102']}/series?range=${range}`, { cookie })).body
+      expect(s.time.length, range).toBeLessThanOrEqual(Math.floor({ '1h': 3_600, '6h': 21_600 }[range] / 30))
+      const filled = s.value.flatMap((v: number | null, i: number) => (v === null ? [] : [i]))
+      expect(filled.length, range).toBeGreaterThan(100)
+      // Every bucket between the first and the newest sample holds one.
+      expect(filled.at(-1) - filled[0] + 1, range).toBe(filled.length)
+    }
+  })
+
   it('names the bad field, 404s an unknown tag and 401s without a session', async () => {
     const bad = await call(`/api/tags/${ids['TI-101']}/series?range=2h`, { cookie })
     expect(bad.status).toBe(400)

@@ -81,11 +81,11 @@ export async function readTagSeries(db: Db, tagId: number, range: SeriesRange, n
 }
 
 /**
- * The tag's charts over [from, to] (epoch seconds), or undefined for an unknown tag. With
- * `atMostPerSample`, no more buckets than samples in the range: a short span (an incident) would
- * otherwise leave most buckets empty and the gaps would break every line.
+ * The tag's charts over [from, to] (epoch seconds), or undefined for an unknown tag. No bucket is
+ * narrower than the tag's sample period: a 30 s tag over 6 h (21.6 s buckets) left every third
+ * bucket empty, and the gaps drew every line dotted and broken; a short span (an incident) the same.
  */
-export async function readTagSeriesBetween(db: Db, tagId: number, from: number, to: number, options: { atMostPerSample?: boolean } = {}) {
+export async function readTagSeriesBetween(db: Db, tagId: number, from: number, to: number) {
   const tag = await findTagHeader(db, tagId)
   if (!tag) return undefined
   const settings = chartIndicatorSettings(tag.samplePeriodS, tag.stored)
@@ -98,7 +98,7 @@ export async function readTagSeriesBetween(db: Db, tagId: number, from: number, 
   const { times, values } = await loadSamplesSince(db, tagId, Math.min(from - settings.windowSeconds - settings.live.detrendBandwidthS, to - judged), to)
   // Older than the oldest raw sample left, the range is drawn from the archive, if it has it.
   const archive = await loadArchiveBefore(db, tagId, from, times.length ? Math.min(times[0]!, to) : to)
-  const count = options.atMostPerSample ? Math.max(2, Math.min(DISPLAY_POINTS, Math.floor((to - from) / period))) : DISPLAY_POINTS
+  const count = Math.max(2, Math.min(DISPLAY_POINTS, Math.floor((to - from) / period)))
   const view = buildTagSeries({ times, values, grid: { from, to, count }, settings, seed: tagId, archive })
   const rules = await findTagRuleMarks(db, tagId, from, to)
   const { stored: _stored, ...header } = tag

@@ -103,7 +103,7 @@ export async function incidentTimeline(db: Db, id: number, options: { series?: b
   const choices = await tagChoices(db, incident.unitId, alarmTagIds)
   const charted = chartedTags(choices, options.tags)
   const [series, judgement] = await Promise.all([
-    Promise.all(charted.map(t => readTagSeriesBetween(db, t, from / 1000, to / 1000, { atMostPerSample: true }))),
+    Promise.all(charted.map(t => readTagSeriesBetween(db, t, from / 1000, to / 1000))),
     Promise.all(charted.map(t => judgementStrip(db, t, from, to))),
   ])
   return { incident, span: spanIso, entries, tagChoices: choices, series: series.filter(s => s !== undefined), judgement }
