@@ -2,9 +2,15 @@ import type { ChartMarker, ChartThreshold } from '~/components/chart/ChartTimeSe
 
 type Priority = ChartThreshold['priority']
 
-/** A rule's limit as a threshold line labelled with the rule's name and condition. */
-export const ruleThresholdLine = (rule: { threshold: number, comparison: string, priority: string, name: string, measure?: string }, engineeringUnit?: string | null): ChartThreshold =>
-  ({ value: rule.threshold, priority: rule.priority as Priority, label: `${rule.name}: ${conditionText({ measure: rule.measure ?? 'value', comparison: rule.comparison, threshold: rule.threshold, engineeringUnit: (rule.measure ?? 'value') === 'value' ? engineeringUnit : null }).replace(/^value /, '')}` })
+/** A rule's limit as a threshold line labelled with the rule's name and condition (a value limit in the tag's unit and decimals). */
+export function ruleThresholdLine(
+  rule: { threshold: number, comparison: string, priority: string, name: string, measure?: string },
+  tag?: { engineeringUnit: string, rangeLow: number, rangeHigh: number },
+): ChartThreshold {
+  const measure = rule.measure ?? 'value'
+  const condition = conditionText({ measure, comparison: rule.comparison, threshold: rule.threshold, ...(measure === 'value' ? tag : {}) })
+  return { value: rule.threshold, priority: rule.priority as Priority, label: `${rule.name}: ${condition.replace(/^value /, '')}` }
+}
 
 /**
  * An alarm's activation as a marker at its time: "urgent alarm", "medium advisory alert" (an

@@ -10,6 +10,10 @@ export interface OverviewTile {
   /** Newest samples averaged in small groups, oldest first. */
   spark: number[]
   leadingIndicator: string | null, leadingValue: number | null, tau: number | null, pValue: number | null
+  /** Newest sample at which τ and p were last computed; they stand still between two tests. */
+  trendTestedAt: string | null
+  /** Seconds of samples between two trend tests (evaluate_every × sample period): 10 min for a 30 s tag. */
+  trendEverySeconds: number
   fold: { kind: 'projected', seconds: number, lowSeconds: number | null, highSeconds: number | null } | { kind: 'none' }
   /** Unacknowledged alarms, returned-to-normal ones included. */
   unackedAlarms: number

@@ -34,3 +34,13 @@ export function ageText(at: string | Date, nowMs: number): string {
   if (Math.abs(seconds) < 10) return 'just now'
   return seconds > 0 ? `${formatDuration(seconds)} ago` : `in ${formatDuration(-seconds)}`
 }
+
+/**
+ * When a tag's trend tests last ran and how often they run (issue 12 item 5): τ and p stand still
+ * between two tests, 10 min apart for a 30 s tag while a 2 s tag's move every 40 s, and a tile
+ * that says so does not read as frozen. "tested 4 min ago, every 10 min".
+ */
+export function trendTestText(testedAt: string | null, everySeconds: number, nowMs: number): string {
+  const every = `every ${formatDuration(everySeconds)}`
+  return testedAt ? `tested ${ageText(testedAt, nowMs)}, ${every}` : `tested ${every}`
+}

@@ -52,6 +52,16 @@ describe('GET /api/overview', () => {
     expect(tile.value).toBe(0.98)
   })
 
+  it('says how often each tag\'s trend tests run (issue 12 item 5)', async () => {
+    // evaluateEvery 20 samples (docs/science.md §S8.2) times the sample period: AI-102 every
+    // 30 s, so τ and p move every 10 min; JI-302 every 2 s, every 40 s.
+    const body = (await call('/api/overview', { cookie })).body
+    expect(tileOf(body, 'AI-102').trendEverySeconds).toBe(600)
+    expect(tileOf(body, 'JI-302').trendEverySeconds).toBe(40)
+    // No trend test has run in this database yet (no pipeline tick was asked for).
+    expect(tileOf(body, 'AI-102').trendTestedAt).toBeNull()
+  })
+
   it('needs a session', async () => {
     expect((await call('/api/overview')).status).toBe(401)
   })

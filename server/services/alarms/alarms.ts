@@ -48,6 +48,9 @@ function alarmSelection(db: Db | DbExecutor) {
     tagId: alarms.tagId,
     tagCode: tags.code,
     engineeringUnit: tags.engineeringUnit,
+    // The tag's range gives its values' decimals on screens (shared/utils/numberText.ts tagDecimals).
+    rangeLow: tags.rangeLow,
+    rangeHigh: tags.rangeHigh,
     consequence: alarmRules.consequence,
     likelyCause: alarmRules.likelyCause,
     operatorAction: alarmRules.operatorAction,

@@ -1,5 +1,6 @@
 import type { TagStatus } from '#shared/alarms/vocabulary'
 import type { OverviewUnit, SetAsideAlarm } from '#shared/types/overview'
+import { defaultIndicatorSettings, evaluationIntervalS } from '#shared/pipeline/indicatorDefaults'
 import { tagDecimals } from '#shared/utils/numberText'
 import { tileStatus } from '#shared/utils/tileStatus'
 import type { Db } from '../../utils/db'
@@ -15,6 +16,7 @@ interface OverviewRow {
   foldSeconds: number | null, foldLowSeconds: number | null, foldHighSeconds: number | null
   unackedAlarms: number | null, returnedUnacked: number | null, openAlarmClass: 'alarm' | 'alert' | null, openAlarmName: string | null
   openAlarmAction: string | null, setAside: SetAsideAlarm[] | null
+  trendTestedAt: string | null, evaluateEvery: number | null
 }
 
 /**
@@ -31,10 +33,13 @@ async function readOverviewRows(db: Db): Promise<OverviewRow[]> {
       ts.fold_low_seconds as "foldLowSeconds", ts.fold_high_seconds as "foldHighSeconds",
       coalesce(unacked.n, 0)::int as "unackedAlarms", coalesce(unacked.returned, 0)::int as "returnedUnacked",
       unacked.open_class as "openAlarmClass", unacked.open_name as "openAlarmName", unacked.open_action as "openAlarmAction",
-      unacked.set_aside as "setAside"
+      unacked.set_aside as "setAside",
+      st.last_evaluated_time as "trendTestedAt", ins.evaluate_every as "evaluateEvery"
     from tags t
     join units u on u.id = t.unit_id
     left join tag_status ts on ts.tag_id = t.id
+    left join tag_analysis_state st on st.tag_id = t.id
+    left join indicator_settings ins on ins.tag_id = t.id
     -- Read live (not from tag_status) so an acknowledgement or a new alarm shows on the next poll.
     -- The open alarm shown is the most severe annunciated one: alarm class before alert.
     left join (
@@ -73,6 +78,9 @@ export async function readOverview(db: Db, nowMs = Date.now()): Promise<{ genera
       valueTime: latestTimeMs === null ? null : new Date(latestTimeMs).toISOString(),
       spark: sparklines.get(row.id) ?? [],
       leadingIndicator: row.leadingIndicator, leadingValue: row.leadingValue, tau: row.tau, pValue: row.pValue,
+      trendTestedAt: row.trendTestedAt === null ? null : new Date(row.trendTestedAt).toISOString(),
+      trendEverySeconds: evaluationIntervalS(
+        { evaluateEvery: row.evaluateEvery ?? defaultIndicatorSettings(row.samplePeriodS).evaluateEvery }, row.samplePeriodS),
       fold: row.foldKind === 'projected' && row.foldSeconds !== null
         ? { kind: 'projected', seconds: row.foldSeconds, lowSeconds: row.foldLowSeconds, highSeconds: row.foldHighSeconds }
         : { kind: 'none' },

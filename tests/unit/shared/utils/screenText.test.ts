@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { plainNumber, pValueText, tagDecimals, tagValue } from '../../../../shared/utils/numberText'
 import { conditionText, measureReading } from '../../../../shared/utils/alarmText'
-import { ageText, plantDateTime } from '../../../../shared/utils/timeText'
+import { ageText, plantDateTime, trendTestText } from '../../../../shared/utils/timeText'
 
 // The formatting rules of issue 12 items 5 and 8. Reference values are worked by hand from the
 // rule each test names; time-zone offsets are from the IANA tz database [common practice].
@@ -59,5 +59,32 @@ describe('times on screens', () => {
     expect(ageText('2026-07-01T08:05:00Z', now)).toBe('in 5 min')
     // 7,199 s is 119.98 min: rounded once it is 2 h 00 min, not "1 h 60 min".
     expect(ageText(new Date(now - 7_199_000), now)).toBe('2 h 00 min ago')
+  })
+})
+
+describe('alarm values in the tag\'s decimals (issue 12 item 5)', () => {
+  // The tile's rule (tagDecimals: four significant figures of the instrument range), so the alarm
+  // list, the alarm page and the chart limit read a tag's values as its tile does.
+  it('writes a value limit and a reading with the tag\'s fixed decimals', () => {
+    const bus = { engineeringUnit: 'pu', rangeLow: 0, rangeHigh: 1.2 }
+    expect(conditionText({ measure: 'value', comparison: 'below', threshold: 0.75, ...bus })).toBe('value below 0.750 pu')
+    expect([measureReading('value', 1, bus), measureReading('value', 0.9988, bus)]).toEqual(['1.000 pu', '0.999 pu'])
+    // pH 0–14: span 14 → 2 decimals, as the tile's "7.37".
+    expect(measureReading('value', 7.355_4, { engineeringUnit: 'pH', rangeLow: 0, rangeHigh: 14 })).toBe('7.36 pH')
+  })
+  it('leaves other measures and unit alarms (no range) to plain numbers', () => {
+    expect(measureReading('variance', 0.000_057_5, { rangeLow: 0, rangeHigh: 14 })).toBe('0.0000575')
+    expect(measureReading('value', 0.9146, { engineeringUnit: 'pu', rangeLow: null, rangeHigh: null })).toBe('0.9146 pu')
+  })
+})
+
+describe('when a tile\'s trend tests ran (issue 12 item 5)', () => {
+  // τ and p are recomputed every evaluateEvery samples (20, docs/science.md §S8.2 table): 10 min
+  // for a 30 s tag, 40 s for a 2 s tag. The tile says when, so a still τ/p does not read as frozen.
+  it('writes the last test\'s age and the interval', () => {
+    const now = Date.parse('2026-07-01T08:00:00Z')
+    expect(trendTestText('2026-07-01T07:56:00Z', 20 * 30, now)).toBe('tested 4 min ago, every 10 min')
+    expect(trendTestText('2026-07-01T07:59:58Z', 20 * 2, now)).toBe('tested just now, every 40 s')
+    expect(trendTestText(null, 600, now)).toBe('tested every 10 min')
   })
 })
