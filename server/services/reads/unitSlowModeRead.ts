@@ -1,6 +1,6 @@
 import { findActivationMarks } from '../alarms/activationMarks'
 import { SERIES_RANGES, type SeriesRange } from '#shared/schemas/series'
-import { buildUnitSlowMode } from '#shared/utils/unitSlowMode'
+import { buildUnitSlowMode, slowModeWindow } from '#shared/utils/unitSlowMode'
 import type { Db } from '../../utils/db'
 import { loadSamplesSince } from './tagSeriesRead'
 
@@ -31,7 +31,9 @@ export async function readUnitSlowMode(db: Db, unitId: number, range: SeriesRang
   if (!found) return undefined
   const to = nowMs / 1000
   const from = to - SERIES_RANGES[range]
-  const samples = await Promise.all(found.tags.map(tag => loadSamplesSince(db, tag.id, from)))
+  // One fit window before the range, so the recovery-rate history starts where the range does.
+  const lead = found.tags.length ? slowModeWindow(found.tags.map(t => t.samplePeriodS), to - from).leadSeconds : 0
+  const samples = await Promise.all(found.tags.map(tag => loadSamplesSince(db, tag.id, from - lead, to)))
   const view = found.tags.length === 0
     ? null
     : buildUnitSlowMode(found.tags.map((tag, i) => ({ tagId: tag.id, samplePeriodS: tag.samplePeriodS, ...samples[i]! })), { from, to })

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { createRng } from '#shared/analysis/random'
 import { simulateOu } from '#shared/analysis/simulate'
-import { fillOnBucketGrid, buildUnitSlowMode } from '#shared/utils/unitSlowMode'
+import { fillOnBucketGrid, buildUnitSlowMode, shareSpreadText, slowModeWindow } from '#shared/utils/unitSlowMode'
 
 describe('fillOnBucketGrid', () => {
   it('averages per grid step and carries the last value across empty steps', () => {
@@ -43,5 +43,53 @@ describe('buildUnitSlowMode', () => {
     const short = buildUnitSlowMode(tags, { from: 7_100, to: 7_200 })
     expect(short.reason).toMatch(/grid points/)
     expect(short.shares).toEqual([])
+  })
+})
+
+describe('buildUnitSlowMode over a range with history before it (issue 12 item 7)', () => {
+  // Two OU tags over 4 h at 2 s; the view asks for the last hour. [common practice] a sliding
+  // window's first estimate needs one window of data: the samples before the range supply it.
+  const slow = simulateOu({ samples: 7_200, dt: 2, k: 0.02, sigma: 1 }, createRng(5))
+  const fast = simulateOu({ samples: 7_200, dt: 2, k: 0.3, sigma: 1 }, createRng(6))
+  const tags = [{ tagId: 1, samplePeriodS: 2, ...slow }, { tagId: 2, samplePeriodS: 2, ...fast }]
+  const from = 14_400 - 3_600
+  const view = buildUnitSlowMode(tags, { from, to: 14_400 })
+
+  it('spans the whole hour, not its last part', () => {
+    expect(view.history.time[0]).toBeLessThanOrEqual(from + 60)
+    expect(view.history.time.at(-1)).toBe(14_400)
+  })
+
+  it('gives the spread of each share over the newest overlapping windows, around the newest share', () => {
+    const spread = view.shareSpread!
+    expect(spread.windows).toBeGreaterThan(3)
+    view.shares.forEach((share, j) => {
+      expect(spread.low[j]).toBeLessThanOrEqual(share)
+      expect(spread.high[j]).toBeGreaterThanOrEqual(share)
+    })
+    // The slower tag (k 0.02/s against 0.3/s) dominates every one of those windows.
+    expect(spread.low[0]).toBeGreaterThan(0.6)
+  })
+
+  it('fits no window before every tag has samples (no carried copies of a first value)', () => {
+    const lateFrom = slow.times.findIndex(t => t >= 12_000)
+    const late = { tagId: 3, samplePeriodS: 2, times: slow.times.slice(lateFrom), values: slow.values.slice(lateFrom) }
+    const mixed = buildUnitSlowMode([tags[1]!, late], { from, to: 14_400 })
+    const windowSeconds = slowModeWindow([2, 2], 3_600).leadSeconds
+    expect(mixed.history.time[0]).toBeGreaterThanOrEqual(12_000 + windowSeconds - 2)
+  })
+})
+
+describe('shareSpreadText', () => {
+  // The issue's own reading (61 % to 97 % within 5 min) is 36 points: not stable.
+  it('calls a split that moved more than 20 points not stable, and says over how long', () => {
+    const swing = shareSpreadText({ low: [0.61, 0.03], high: [0.97, 0.39], windows: 10, seconds: 300 })
+    expect(swing).toEqual({ stable: false, text: expect.stringMatching(/^Not stable: a share moved by up to 36 points over the last 5 min \(10 overlapping fits\)/) })
+    expect(shareSpreadText({ low: [0.5, 0.45], high: [0.55, 0.5], windows: 4, seconds: 120 }))
+      .toEqual({ stable: true, text: 'Steady: every share stayed within 5 points over the last 2 min (4 overlapping fits).' })
+  })
+  it('says nothing from a single fit', () => {
+    expect(shareSpreadText({ low: [1], high: [1], windows: 1, seconds: 0 })).toBeNull()
+    expect(shareSpreadText(null)).toBeNull()
   })
 })
