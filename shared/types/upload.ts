@@ -15,6 +15,8 @@ export interface UploadSummary {
   rejectedCount: number
   /** The first MAX_LISTED_REJECTIONS, in line order. */
   rejections: LineRejection[]
+  /** Every rejection counted by its cause (shared/utils/rejectionReasons.ts), commonest first. */
+  causes: { cause: string, count: number }[]
   /** Valid samples per tag code. */
   tags: Record<string, number>
   /** Batches written; each one its own transaction. */

@@ -95,6 +95,20 @@ describe('POST /api/uploads/import', () => {
     expect(await samplesOf('EI-301', '2025-03-29T00:00:00Z', '2025-03-31T00:00:00Z')).toEqual([])
   })
 
+  it('counts every rejected line by cause, past the listed ones (issue 12 item 9)', async () => {
+    // 1,200 values of EI-301 (range 0–1.2 pu) far beyond it, each quoting its own number, and
+    // one unknown tag after them: two causes, counted over the whole file.
+    const rows = Array.from({ length: 1_200 }, (_, i) => `2025-03-01T00:${String(Math.floor(i / 60)).padStart(2, '0')}:${String(i % 60).padStart(2, '0')}Z,EI-301,${50 + i},`)
+    const csv = ['time,tag,value,quality', ...rows, '2025-03-01T01:00:00Z,QX-777,1,'].join('\n')
+    const res = await importCsv(csv, { ...LONG_FORMAT, dryRun: '1' })
+    expect(res.summary).toMatchObject({ rowsRead: 1_201, valid: 0, rejectedCount: 1_201 })
+    expect(res.summary.rejections).toHaveLength(1_000)
+    expect(res.summary.causes).toEqual([
+      { cause: expect.stringMatching(/^… is beyond the physical bound of this tag/), count: 1_200 },
+      { cause: 'unknown tag code "QX-777" at this site', count: 1 },
+    ])
+  })
+
   it('answers bad settings with 400 naming the field, before any row is read', async () => {
     const csv = 'time,tag,value\n2025-01-01T00:00:00Z,TI-101,1\n'
     const noColumn = await importCsv(csv, { ...LONG_FORMAT, qualityColumn: 'status' })

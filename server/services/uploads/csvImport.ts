@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm'
 import { sites } from '../../db/schema'
 import { MAX_LISTED_REJECTIONS, UPLOAD_BATCH_SAMPLES } from '#shared/schemas/upload'
 import { recordToSamples, validatePending, type ColumnPlan, type LineRejection, type PendingSample } from '#shared/utils/csvSamples'
+import { countCause } from '#shared/utils/rejectionReasons'
 import type { RejectedSample, ValidSample } from '#shared/utils/sampleBatch'
 import type { UploadEvent, UploadSummary } from '#shared/types/upload'
 import type { CsvSource } from './csvSource'
@@ -19,7 +20,8 @@ export async function findSite(db: Db, id: number) {
 }
 
 const emptySummary = (dryRun: boolean): UploadSummary => ({
-  dryRun, rowsRead: 0, valid: 0, stored: 0, duplicates: 0, blankCells: 0, rejectedCount: 0, rejections: [], tags: {}, batchesCommitted: 0, durationMs: 0,
+  dryRun, rowsRead: 0, valid: 0, stored: 0, duplicates: 0, blankCells: 0, rejectedCount: 0, rejections: [], causes: [], tags: {},
+  batchesCommitted: 0, durationMs: 0,
 })
 
 /** Where a batch of valid samples goes: the plant's history, unless a caller keeps them elsewhere. */
@@ -41,10 +43,13 @@ export async function* importCsvRecords(db: Db, input: {
   const summary = emptySummary(dryRun)
   const tagIds = new Map<string, SiteTag>()
   const unknownTags = new Set<string>()
+  // Every rejection is counted by its cause, not only the listed ones.
+  const causes = new Map<string, number>()
   let pending: PendingSample[] = []
 
   const reject = (r: LineRejection) => {
     summary.rejectedCount++
+    countCause(causes, r)
     if (summary.rejections.length < MAX_LISTED_REJECTIONS) summary.rejections.push(r)
   }
   const takeUnreadable = () => {
@@ -84,6 +89,7 @@ export async function* importCsvRecords(db: Db, input: {
   }
   const finish = () => {
     summary.rejections.sort((a, b) => a.line - b.line)
+    summary.causes = [...causes].map(([cause, count]) => ({ cause, count })).sort((a, b) => b.count - a.count)
     summary.durationMs = Date.now() - started
     return summary
   }
