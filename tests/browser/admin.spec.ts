@@ -148,3 +148,26 @@ describe('admin journey: a user, a key rotation and a mail route', () => {
     await screenshot(page, 'admin-journey-route-test-sent')
   })
 })
+
+describe('admin reads the audit log', () => {
+  it('types its period on the plant clock in the tables\' year-month-day order (issue 12 item 8)', async () => {
+    const page = await context.newPage()
+    await page.goto(url('/admin/audit'))
+    const from = page.getByLabel('From (Europe/London)')
+    await from.waitFor()
+    expect(await from.getAttribute('placeholder')).toBe('yyyy-mm-dd hh:mm')
+    expect(await from.getAttribute('type')).not.toBe('datetime-local')
+    // A month-first date is refused with the reason, not read another way.
+    await from.fill('06/01/2026 00:00')
+    await from.press('Enter')
+    await page.getByRole('alert').filter({ hasText: 'is not a date and time such as 2026-12-02 14:00' }).waitFor()
+    // Midnight on 1 June 2026 in London is 23:00 UTC the day before (BST, UTC+1: IANA tz database, Rule EU).
+    const [request] = await Promise.all([
+      page.waitForRequest(r => r.url().includes('/api/admin/audit?') && r.url().includes('from=')),
+      from.fill('2026-06-01 00:00').then(() => from.press('Enter')),
+    ])
+    expect(new URL(request.url()).searchParams.get('from')).toBe('2026-05-31T23:00:00.000Z')
+    await screenshot(page, 'admin-audit-period')
+    await page.close()
+  })
+})

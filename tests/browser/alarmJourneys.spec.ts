@@ -167,4 +167,23 @@ describe('alarm journeys (issue 12)', () => {
     await page.getByRole('radio', { name: 'Standard' }).click()
     await page.setViewportSize({ width: 1440, height: 900 })
   })
+
+  it('says on the tile when the trend tests last ran and how often (item 5)', async () => {
+    // A 30 s tag is re-tested every 20 samples (evaluateEvery, docs/science.md §S8.2): every
+    // 10 min, so its τ and p stand still between tests. The tile's stored result is written here
+    // as the pipeline would (no tick runs in this file unless asked), tested 4 min ago.
+    const tagId = await createTestTag(sql, 'AT-930', 'T-400', 30)
+    await ingestAll([{ tag: 'AT-930', time: new Date(Date.now() - 10_000).toISOString(), value: 300 }])
+    await sql`insert into tag_status (tag_id, status, reason, leading_indicator, leading_value, tau, p_value)
+      values (${tagId}, 'steady', '', 'ar1', 0.61, 0.12, 0.4)
+      on conflict (tag_id) do update set leading_indicator = 'ar1', leading_value = 0.61, tau = 0.12, p_value = 0.4`
+    await sql`insert into tag_analysis_state (tag_id, last_evaluated_time) values (${tagId}, ${new Date(Date.now() - 4 * 60_000)})
+      on conflict (tag_id) do update set last_evaluated_time = excluded.last_evaluated_time`
+    await page.goto(url('/'))
+    const tile = page.locator('[data-tile]', { hasText: 'AT-930' })
+    await expect.poll(() => tile.getByTestId('tile-trend-tested').textContent()).toMatch(/^tested \d min ago, every 10 min$/)
+    // 4 min, or 5 on a machine slow enough to take half a minute to draw the page.
+    expect(Number((await tile.getByTestId('tile-trend-tested').textContent())!.match(/\d+/)![0])).toBeGreaterThanOrEqual(4)
+    await screenshot(page, 'journey-tile-trend-tested')
+  })
 })

@@ -109,6 +109,11 @@ describe('an operator on shift', () => {
     expect(lines.length).toBeGreaterThan(900)
     await screenshot(page, 'console-tag-detail')
     await expectAccessible('tag detail')
+    // Legends (issue 12 item 7) in the page's font, "—" with nothing under the cursor, not uPlot's "--".
+    const legend = page.locator('.u-legend').first()
+    expect(await legend.evaluate(el => getComputedStyle(el).fontFamily)).toMatch(/Roboto Mono/)
+    expect(await legend.textContent()).not.toContain('--')
+    expect(await legend.textContent()).toContain('—')
 
     // Zoom by dragging across the residuals chart: every chart and the CSV follow the same range.
     const over = page.locator('.uplot .u-over').nth(1)
@@ -136,6 +141,9 @@ describe('an operator on shift', () => {
     expect(shares.join(' ')).toMatch(/TI-101/)
     expect(shares.join(' ')).toMatch(/AI-102/)
     await expect.poll(() => page.locator('.uplot').count()).toBe(1)
+    // How far each share moved over the newest overlapping fits, and whether that is steady, in words (issue 12 item 7).
+    expect(await page.getByTestId('share-spread').allTextContents()).toEqual([expect.stringMatching(/^\d+–\d+ %$/), expect.stringMatching(/^\d+–\d+ %$/)])
+    expect(await page.getByTestId('share-steadiness').textContent()).toMatch(/^(Steady: every share stayed within|Not stable: a share moved by up to) \d+ points over the last/)
     await screenshot(page, 'console-unit-detail')
     await expectAccessible('unit detail')
   })
@@ -148,6 +156,9 @@ describe('alarms and the shift log', () => {
     await row.waitFor()
     await expect(row.textContent()).resolves.toMatch(/Start the reactor high-temperature procedure/)
     await expect(row.textContent()).resolves.toMatch(/urgent/)
+    // The limit and the reading in the tag's decimals, as on its tile (issue 12 item 5): EI-301 is
+    // ranged 0–1.2 pu, three decimals (four significant figures of the span).
+    await expect(page.getByTestId('alarm-row').filter({ hasText: 'B-300 bus voltage low' }).textContent()).resolves.toContain('value below 0.750 pu, now 0.700 pu')
     await expect(page.getByRole('note').first().textContent()).resolves.toMatch(/Advisory only/)
     await screenshot(page, 'console-alarms-active')
     await expectAccessible('alarms')

@@ -127,6 +127,36 @@ describe('engineer uploads historian CSV', () => {
     await page.close()
   })
 
+  it('groups 400 lines with one cause as one row, keeps the result in view and links to the data (issue 12 item 9)', async () => {
+    // TI-401 is ranged 0–100 °C, so values from 250 are beyond its physical bound (one range span
+    // outside, server/services/ingest/ingest.ts); each reason quotes its own value.
+    const good = Array.from({ length: 20 }, (_, i) => `2025-08-06T10:00:${String(i).padStart(2, '0')}Z,TI-401,41.${i % 10}`)
+    const beyond = Array.from({ length: 400 }, (_, i) => `2025-08-06T11:${String(Math.floor(i / 60)).padStart(2, '0')}:${String(i % 60).padStart(2, '0')}Z,TI-401,${250 + i}`)
+    const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'tank-history.csv')
+    writeFileSync(file, ['time,tag,value', ...good, ...beyond].join('\n'))
+    await context.clearCookies()
+    const page = await context.newPage()
+    await signInThroughForm(page, 'engineer')
+    await page.goto(url('/upload'))
+    await page.getByLabel('Historian CSV file').setInputFiles(file)
+    await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
+    await page.getByRole('button', { name: 'Import', exact: true }).click()
+    const outcome = page.getByTestId('upload-outcome')
+    await expect.poll(() => outcome.textContent()).toBe('20 samples stored, 400 rejected.')
+    const rows = page.getByRole('table', { name: 'Rejections by reason' }).locator('tbody tr')
+    expect(await rows.count()).toBe(1)
+    expect(await rows.first().textContent()).toContain('… is beyond the physical bound of this tag')
+    expect((await rows.first().locator('td').nth(1).textContent())?.trim()).toBe('400')
+    expect(await rows.first().getByText(/^line \d+/).count()).toBe(3)
+    // The result scrolls into view; the page stays short (it was 11,700 px with a row per line).
+    await expect.poll(() => outcome.evaluate(el => el.getBoundingClientRect().top >= 0 && el.getBoundingClientRect().bottom <= innerHeight)).toBe(true)
+    expect(await page.evaluate(() => document.documentElement.scrollHeight)).toBeLessThan(3_000)
+    await screenshot(page, 'engineer-upload-one-cause')
+    await page.getByRole('link', { name: 'Show the data' }).click()
+    await page.getByRole('heading', { name: /TI-401/ }).waitFor()
+    await page.close()
+  })
+
   it('maps a wide file: tag columns ticked, a column that is no tag of the site left out', async () => {
     const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'fenwick-wide.csv')
     writeFileSync(file, 'time;EI-301;JI-302;Ambient\n2025-08-05T09:00:00Z;1.01;80.5;21\n2025-08-05T09:00:02Z;1.02;;21\n')
