@@ -68,12 +68,12 @@ export const DEMO_RULES: readonly DemoRule[] = [
   slowingDown('LI-402', 'T-400', 'The feed-tank level loop', 'Check the level controller and valves.'),
 ]
 
-export const DEMO_ROUTE = { email: 'oncall@harrowgate.example', minPriority: 'high' as Priority }
+export const DEMO_ROUTE = { name: 'On-call engineer (high and urgent)', email: 'oncall@harrowgate.example', minPriority: 'high' as Priority }
 
-/** A demo rule's columns for one tag (delays given in evaluations become seconds for its period). */
 /** The demo's time to respond by priority (invented for the demo plant, like its rationale texts). */
 const DEMO_TIME_TO_RESPOND_S: Record<Priority, number> = { urgent: 300, high: 900, medium: 1800, low: 3600 }
 
+/** A demo rule's columns for one tag (delays given in evaluations become seconds for its period). */
 export function demoRuleColumns(r: DemoRule, tag: { id: number, unitId: number, samplePeriodS: number }) {
   const seconds = (delay: DemoRule['onDelay']) =>
     typeof delay === 'number' ? delay : delay.evaluations * evaluationIntervalS(defaultIndicatorSettings(tag.samplePeriodS), tag.samplePeriodS)
@@ -94,7 +94,9 @@ export async function seedDemoAlarmRules(tx: DbTransaction, siteId: number): Pro
     return tag ? [{ siteId, ...demoRuleColumns(r, tag) }] : []
   })
   if (rows.length > 0) await tx.insert(alarmRules).values(rows).onConflictDoNothing()
-  const [route] = await tx.select({ id: notificationRoutes.id }).from(notificationRoutes)
+  const [route] = await tx.select({ id: notificationRoutes.id, name: notificationRoutes.name }).from(notificationRoutes)
     .where(and(eq(notificationRoutes.siteId, siteId), eq(notificationRoutes.email, DEMO_ROUTE.email)))
   if (!route) await tx.insert(notificationRoutes).values({ siteId, ...DEMO_ROUTE })
+  // Installs seeded before routes had names: name it, unless an admin already did.
+  else if (!route.name) await tx.update(notificationRoutes).set({ name: DEMO_ROUTE.name }).where(eq(notificationRoutes.id, route.id))
 }
