@@ -20,7 +20,9 @@ const warningWindowMinutes = z.number({ invalid_type_error: 'must be a number of
   .positive('must be more than 0 minutes').max(MAX_WARNING_WINDOW_MINUTES, `must be at most ${MAX_WARNING_WINDOW_MINUTES} minutes (30 days)`)
 
 export const replayCreateSchema = z.object({
-  tagId: dbId('tag'),
+  /** The tag whose history and rules to replay — or, instead, a unit whose slow-mode rules to replay. */
+  tagId: dbId('tag').optional(),
+  unitId: dbId('unit').optional(),
   from: zonedTimeField(),
   to: zonedTimeField(),
   eventTime: zonedTimeField().optional(),
@@ -31,6 +33,13 @@ export const replayCreateSchema = z.object({
   fileOf: dbId('replay').optional(),
   note: textField().trim().max(500, 'must have at most 500 characters').default(''),
 }).strict().superRefine((r, ctx) => {
+  if ((r.tagId === undefined) === (r.unitId === undefined))
+    ctx.addIssue({ code: 'custom', path: ['tagId'], message: 'give a tag (tagId) or a unit (unitId), not both' })
+  // A unit's replay runs its rules over the slow-mode fits the live task recorded: nothing to re-tune.
+  if (r.unitId !== undefined && r.settings !== undefined)
+    ctx.addIssue({ code: 'custom', path: ['settings'], message: 'apply to a tag\'s replay only' })
+  if (r.unitId !== undefined && r.fileOf !== undefined)
+    ctx.addIssue({ code: 'custom', path: ['fileOf'], message: 'applies to a tag\'s replay only' })
   if (r.to.getTime() <= r.from.getTime()) ctx.addIssue({ code: 'custom', path: ['to'], message: 'must be after from' })
   else if (r.to.getTime() - r.from.getTime() > MAX_REPLAY_DAYS * 86_400_000)
     ctx.addIssue({ code: 'custom', path: ['to'], message: `must be at most ${MAX_REPLAY_DAYS} days after from` })

@@ -5,10 +5,10 @@ import { launchChromium, screenshot, signInThroughForm } from '../support/browse
 import { testSql } from '../support/db'
 import { busToCollapse, FIXED_START_MS, tagWithDemoRules } from '../support/demoPlant'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
-import { ingestAll, waitForDemoSite } from '../support/pipeline'
+import { createTestTag, ingestAll, runServerTask, waitForDemoSite } from '../support/pipeline'
 import { typedPlantTime } from '../support/plantTime'
 import { setupBuiltServer } from '../support/server'
-import { signInAs } from '../support/session'
+import { call, signInAs } from '../support/session'
 
 // The replay workbench (issue 14 item 4): an engineer asks for a replay of stored history with a
 // marked event, reloads the page while the job runs, and reads the saved report.
@@ -118,5 +118,44 @@ describe('engineer replays stored history on the workbench', () => {
     expect(await page.getByTestId('replay-summary').textContent()).toMatch(/Earliest warning: .* before the event/)
     expect(await page.getByRole('link', { name: 'Same file, other settings' }).count()).toBe(1)
     await screenshot(page, 'engineer-replay-file-report')
+  }, 900_000)
+
+  it('replays a unit\'s slow-mode rules over its recorded fits', async () => {
+    await sql`insert into units (site_id, code, name, kind) select site_id, 'B-373', 'Workbench load bus, unit rule', kind from units where code = 'B-300'`
+    const [unit] = await sql`select id from units where code = 'B-373'`
+    for (const code of ['EI-373', 'JI-373']) await createTestTag(sql, code, 'B-373', 2)
+    const rule = await call('/api/rules', {
+      method: 'POST', cookie: await signInAs('engineer'),
+      json: {
+        targetKind: 'unit', unitId: unit!.id, name: 'B-373 slow mode below 1e9', measure: 'recovery_rate', comparison: 'below', threshold: 1e9,
+        priority: 'low', alarmClass: 'alert', consequence: 'c', likelyCause: 'c', operatorAction: 'c', timeToRespondS: 600,
+      },
+    })
+    expect(rule.status, JSON.stringify(rule.body)).toBe(201)
+    const { samples, tipMs } = busToCollapse()
+    const shift = FIXED_START_MS - tipMs!
+    const rows = samples.filter(s => s.time <= tipMs!).map(s => ({ tag: s.tag === 'EI-301' ? 'EI-373' : 'JI-373', time: new Date(s.time + shift).toISOString(), value: s.value }))
+    const chunk = Math.ceil(rows.length / 3)
+    for (let i = 0; i < rows.length; i += chunk) {
+      await ingestAll(rows.slice(i, i + chunk))
+      await runServerTask('indicators:refresh')
+    }
+    const page = await context.newPage()
+    await signInThroughForm(page, 'engineer')
+    await page.goto(url('/workbench/replays'))
+    const form = page.getByRole('form', { name: 'New replay', exact: true })
+    await form.getByRole('combobox', { name: /^Tag, or unit/ }).selectOption({ label: 'B-373 — Workbench load bus, unit rule' })
+    await form.getByText('over the slow-mode fits the live pipeline recorded').waitFor()
+    expect(await form.getByRole('checkbox', { name: /Try other indicator settings/ }).count()).toBe(0)
+    await form.getByRole('textbox', { name: /^From/ }).fill(typedPlantTime(Date.parse(rows[0]!.time) - 60_000))
+    await form.getByRole('textbox', { name: /^To \(/ }).fill(typedPlantTime(FIXED_START_MS))
+    await form.getByRole('button', { name: 'Queue replay' }).click()
+    await page.waitForURL(/\/workbench\/replays\/\d+$/)
+    await page.getByRole('heading', { name: /^Replay \d+ · B-373$/ }).waitFor()
+    await page.getByRole('heading', { name: 'Report' }).waitFor({ timeout: 600_000 })
+    expect(await page.getByTestId('replay-summary').textContent()).toMatch(/Slow-mode fits replayed: [1-9]/)
+    expect(await page.getByRole('img', { name: 'Unit slow-mode recovery rate, with what would have fired chart' }).count()).toBe(1)
+    expect(await page.getByRole('table', { name: 'What would have fired' }).locator('tbody tr').filter({ hasText: 'B-373 slow mode below 1e9' }).count()).toBeGreaterThan(0)
+    await screenshot(page, 'engineer-replay-unit-report')
   }, 900_000)
 })

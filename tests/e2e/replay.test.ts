@@ -3,7 +3,7 @@ import { ADVISORY_CAUTION } from '../../shared/alarms/vocabulary'
 import { testSql } from '../support/db'
 import { busToCollapse, FIXED_START_MS, simulateDemoUnit, tagWithDemoRules } from '../support/demoPlant'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
-import { ingestAll, runServerTask, waitForDemoSite } from '../support/pipeline'
+import { createTestTag, ingestAll, runServerTask, waitForDemoSite } from '../support/pipeline'
 import { setupBuiltServer } from '../support/server'
 import { call, signInAs } from '../support/session'
 
@@ -239,6 +239,60 @@ describe('replay of stored history', () => {
     expect(own.result.evaluations).toBe(Math.floor(rows.length / 20))
     expect(other.result.evaluations).toBe(Math.floor(rows.length / 40))
     expect((await call(`/api/tags/${tag}/indicator-settings`, { cookie: engineer })).body.current.evaluateEvery).toBe(20)
+  }, 600_000)
+
+  // A unit's slow-mode rules over the fits the live task recorded: two tags of a load bus driven to
+  // collapse, processed in six ticks (one slow-mode fit per tick at most). One rule holds on every
+  // fit, one never; the replay must give the live unit alarms at the same times. The outside
+  // reference is what the live pipeline stored.
+  it('replays a unit\'s slow-mode rules over the recorded fits, as the live task raised them', async () => {
+    await sql`insert into units (site_id, code, name, kind) select site_id, 'B-391', 'Replay load bus, unit rules', kind from units where code = 'B-300'`
+    const [unit] = await sql`select id from units where code = 'B-391'`
+    for (const code of ['EI-391', 'JI-391']) await createTestTag(sql, code, 'B-391', 2)
+    const rationale = { consequence: 'c', likelyCause: 'c', operatorAction: 'c', timeToRespondS: 600 }
+    const ruleIds: number[] = []
+    for (const [name, comparison] of [['B-391 slow mode always', 'below'], ['B-391 slow mode never', 'above']] as const) {
+      const res = await call('/api/rules', {
+        method: 'POST', cookie: engineer,
+        json: { targetKind: 'unit', unitId: unit!.id, name, measure: 'recovery_rate', comparison, threshold: 1e9, priority: 'low', alarmClass: 'alert', ...rationale },
+      })
+      expect(res.status, JSON.stringify(res.body)).toBe(201)
+      ruleIds.push(res.body.id)
+    }
+    const { samples, tipMs } = busToCollapse()
+    const shift = FIXED_START_MS - tipMs!
+    const rows = samples.filter(s => s.time <= tipMs!).map(s => ({ tag: s.tag === 'EI-301' ? 'EI-391' : 'JI-391', time: iso(s.time + shift), value: s.value }))
+    const chunk = Math.ceil(rows.length / 6)
+    for (let i = 0; i < rows.length; i += chunk) {
+      await ingestAll(rows.slice(i, i + chunk))
+      await runServerTask('indicators:refresh')
+    }
+    const [fits] = await sql`select count(*)::int as n from unit_slow_mode where unit_id = ${unit!.id}`
+    expect(fits!.n, 'the live task recorded no slow-mode fit').toBeGreaterThan(1)
+    const live = await sql`select a.rule_id, e.condition_time from alarm_events e join alarms a on a.id = e.alarm_id
+      where a.rule_id in ${sql(ruleIds)} and e.event = 'activate' order by e.condition_time`
+    expect(live.length).toBe(1)
+
+    const report = await replayToEnd({ unitId: unit!.id, from: rows[0]!.time, to: iso(FIXED_START_MS), eventTime: iso(FIXED_START_MS) })
+    expect(report.state, report.error).toBe('done')
+    expect(report.targetCode).toBe('B-391')
+    expect(report.settings).toBeNull()
+    expect(report.result.samples).toBe(fits!.n)
+    expect(report.rules.map((r: { id: number }) => r.id)).toEqual(ruleIds)
+    expect(activations(report.result.firings)).toEqual(live.map(r => ({ ruleId: Number(r.rule_id), ms: new Date(r.condition_time).getTime() })))
+    const always = report.result.rules.find((r: { ruleId: number }) => r.ruleId === ruleIds[0])
+    expect(always.leadTimeS).toBeCloseTo((FIXED_START_MS - new Date(live[0]!.condition_time).getTime()) / 1000, 3)
+
+    for (const [body, field] of [
+      [{ unitId: unit!.id, tagId: 1, from: rows[0]!.time, to: iso(FIXED_START_MS) }, 'tagId'],
+      [{ from: rows[0]!.time, to: iso(FIXED_START_MS) }, 'tagId'],
+      [{ unitId: unit!.id, from: rows[0]!.time, to: iso(FIXED_START_MS), settings: report.settings ?? {} }, 'settings'],
+      [{ unitId: 999_999, from: rows[0]!.time, to: iso(FIXED_START_MS) }, 'unitId'],
+    ] as const) {
+      const res = await call('/api/replays', { method: 'POST', cookie: engineer, json: body })
+      expect(res.status, JSON.stringify(body)).toBe(400)
+      expect(res.body.message, JSON.stringify(body)).toContain(field)
+    }
   }, 600_000)
 
   // A replay whose job the queue has given up (its retries spent in a long database outage, or the

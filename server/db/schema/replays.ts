@@ -5,16 +5,19 @@ import type { IndicatorSettings } from '../../../shared/pipeline/indicatorDefaul
 import type { ReplayResult, ReplayRule } from '../../../shared/pipeline/replayOutcome'
 import type { SettingsInForce } from '../../../shared/pipeline/settingsInForce'
 import { oneOf } from './checks'
-import { sites, tags } from './plant'
+import { sites, tags, units } from './plant'
 import { users } from './users'
 
-// A replay of a tag's stored history through the live engine and rules (issue 14 item 4). The
+// A replay of a tag's stored history (or a file) through the live engine and rules, or of a unit's
+// recorded slow-mode fits through its unit rules (issue 14 item 4). The
 // settings and rules it ran with are copied onto the row when it is asked for, so the saved
 // report keeps saying what it replayed after the tag's settings or rules change.
 export const replays = pgTable('replays', {
   id: serial('id').primaryKey(),
   siteId: integer('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
-  tagId: integer('tag_id').notNull().references(() => tags.id, { onDelete: 'cascade' }),
+  /** The tag replayed; null for a unit's replay (its slow-mode rules). */
+  tagId: integer('tag_id').references(() => tags.id, { onDelete: 'cascade' }),
+  unitId: integer('unit_id').references(() => units.id, { onDelete: 'cascade' }),
   fromTime: timestamp('from_time', { withTimezone: true }).notNull(),
   toTime: timestamp('to_time', { withTimezone: true }).notNull(),
   /** A known event in the range (trip, runaway, collapse) the lead time is measured to. */
@@ -24,7 +27,8 @@ export const replays = pgTable('replays', {
   note: text('note').notNull().default(''),
   /** true: the engineer's alternative settings; false: the tag's own at the time of asking. */
   alternativeSettings: boolean('alternative_settings').notNull().default(false),
-  settings: jsonb('settings').$type<IndicatorSettings>().notNull(),
+  /** null for a unit's replay, which replays the slow-mode fits the live task recorded. */
+  settings: jsonb('settings').$type<IndicatorSettings>(),
   /**
    * The tag's own settings versions over the range, oldest first (null: `settings` throughout, as
    * for alternative settings and uploaded files). The first is in force from the start of the data.
@@ -50,6 +54,7 @@ export const replays = pgTable('replays', {
   index('replays_created').on(t.createdAt),
   check('replays_state', oneOf(t.state, REPLAY_STATES)),
   check('replays_source', oneOf(t.source, REPLAY_SOURCES)),
+  check('replays_target', sql`(${t.tagId} is null) <> (${t.unitId} is null) and (${t.tagId} is null or ${t.settings} is not null)`),
   check('replays_range', sql`${t.fromTime} < ${t.toTime}`),
   check('replays_progress', sql`${t.progress} >= 0 and ${t.progress} <= 1`),
   check('replays_warning_window', sql`${t.warningWindowS} > 0`),

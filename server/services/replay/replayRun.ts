@@ -1,4 +1,4 @@
-import { eq } from 'drizzle-orm'
+import { and, asc, between, eq } from 'drizzle-orm'
 import { INACTIVE } from '#shared/alarms/conditionTracker'
 import type { EvaluationPoint } from '#shared/pipeline/evaluateRecord'
 import { replayConditions, tagObservations } from '#shared/pipeline/ruleReplay'
@@ -6,7 +6,7 @@ import { entryAt } from '#shared/pipeline/settingsInForce'
 import { replayOutcome, type ReplayChart, type ReplayFiring, type ReplayResult } from '#shared/pipeline/replayOutcome'
 import { MAX_REPLAY_SAMPLES } from '#shared/schemas/replay'
 import { bucketSamples, toJsonNumbers } from '#shared/utils/timeBuckets'
-import { replays, tags, type ReplayRow } from '../../db/schema'
+import { replays, tags, unitSlowMode, type ReplayRow } from '../../db/schema'
 import type { Db } from '../../utils/db'
 import { isDatabaseUnavailable, untilDatabaseAnswers } from '../../utils/dbUnavailable'
 import { evaluateRecords } from '../pipeline/recordEvaluation'
@@ -58,11 +58,12 @@ export async function runReplay(db: Db, id: number): Promise<void> {
 }
 
 async function evaluateReplay(db: Db, replay: ReplayRow): Promise<ReplayResult> {
-  const [tag] = await db.select({ samplePeriodS: tags.samplePeriodS }).from(tags).where(eq(tags.id, replay.tagId))
+  if (replay.unitId !== null) return evaluateUnitReplay(db, replay)
+  const [tag] = await db.select({ samplePeriodS: tags.samplePeriodS }).from(tags).where(eq(tags.id, replay.tagId!))
   if (!tag) throw new ReplayRefused(`tag ${replay.tagId} no longer exists`)
   const { rules } = replay
   const period = tag.samplePeriodS
-  const schedule = replay.settingsInForce ?? [{ afterS: null, versionId: 0, settings: replay.settings }]
+  const schedule = replay.settingsInForce ?? [{ afterS: null, versionId: 0, settings: replay.settings! }]
   const history = Math.max(...schedule.map(e => historySamples(e.settings, period)))
   const loaded = replay.source === 'upload' ? await loadUploadedSamples(db, replay) : await loadReplaySamples(db, replay, history)
   const { times, values, qualities, first } = loaded
@@ -92,7 +93,7 @@ async function evaluateReplay(db: Db, replay: ReplayRow): Promise<ReplayResult> 
     const v = values.subarray(start, to)
     const q = qualities.subarray(start, to)
     const [evaluation] = await evaluateRecords([{
-      tagId: replay.tagId, times: t, values: v, firstNew: from - start, samplesSinceEvaluation: counter, samplePeriodS: period, settings,
+      tagId: replay.tagId!, times: t, values: v, firstNew: from - start, samplesSinceEvaluation: counter, samplePeriodS: period, settings,
     }])
     counter = evaluation!.samplesSinceEvaluation
     const changes = replayConditions(rules, states, tagObservations(t, v, q, from - start, evaluation!.points, measures, previous))
@@ -103,16 +104,49 @@ async function evaluateReplay(db: Db, replay: ReplayRow): Promise<ReplayResult> 
     await db.update(replays).set({ samplesDone: done, progress: done / total }).where(eq(replays.id, replay.id))
     from = to
   }
-  const span = {
-    from: seconds(replay.fromTime), to: seconds(replay.toTime),
-    eventTime: replay.eventTime ? seconds(replay.eventTime) : null, warningWindowS: replay.warningWindowS,
-  }
+  const span = spanOf(replay)
   return {
     ...replayOutcome(rules, firings, span),
     samples: total,
     evaluations: points.length,
     firings,
     chart: replayChart(times.subarray(first), values.subarray(first), points, span),
+  }
+}
+
+const spanOf = (replay: ReplayRow) => ({
+  from: seconds(replay.fromTime), to: seconds(replay.toTime),
+  eventTime: replay.eventTime ? seconds(replay.eventTime) : null, warningWindowS: replay.warningWindowS,
+})
+
+/**
+ * A unit's slow-mode rules over the fits the live task recorded in the range, in time order, as
+ * the tick observes them (server/services/pipeline/slowModeRefresh.ts): a fit whose VAR(1) saw no
+ * recovery at all (|μ| ≥ 1, rate null) is the slowest possible rate, 0. The chart is the rate.
+ */
+async function evaluateUnitReplay(db: Db, replay: ReplayRow): Promise<ReplayResult> {
+  const fits = await db.select({ time: unitSlowMode.time, rate: unitSlowMode.recoveryRate }).from(unitSlowMode)
+    .where(and(eq(unitSlowMode.unitId, replay.unitId!), between(unitSlowMode.time, replay.fromTime, replay.toTime)))
+    .orderBy(asc(unitSlowMode.time))
+  await db.update(replays).set({ samplesTotal: fits.length }).where(eq(replays.id, replay.id))
+  const { rules } = replay
+  const observations = fits.flatMap(f => rules.map((_, rule) => ({ rule, time: seconds(f.time), value: f.rate ?? 0, current: null })))
+  const changes = replayConditions(rules, rules.map(() => ({ ...INACTIVE })), observations)
+  const firings: ReplayFiring[] = changes.map(c => ({ ruleId: rules[c.rule]!.id, time: c.time, value: finiteOrNull(c.value), change: c.change }))
+  const span = spanOf(replay)
+  const time = fits.map(f => seconds(f.time))
+  const rate = Float64Array.from(fits, f => f.rate ?? 0)
+  // Fits come one per evaluation interval: drawn as they are unless there are more than the chart holds.
+  const chart = fits.length <= CHART_BUCKETS
+    ? { time, value: toJsonNumbers(rate) }
+    : (b => ({ time: Array.from(b.time), value: toJsonNumbers(b.mean) }))(bucketSamples(Float64Array.from(time), rate, { from: span.from, to: span.to + 1e-3, count: CHART_BUCKETS }))
+  await db.update(replays).set({ samplesDone: fits.length, progress: 1 }).where(eq(replays.id, replay.id))
+  return {
+    ...replayOutcome(rules, firings, span),
+    samples: fits.length,
+    evaluations: fits.length,
+    firings,
+    chart: { ...chart, pointTime: [], ar1: [], pAr1: [] },
   }
 }
 

@@ -2,7 +2,7 @@ import { and, asc, between, desc, eq, inArray, isNotNull, sql } from 'drizzle-or
 import type { ReplayCreate } from '#shared/schemas/replay'
 import type { ReplayRule } from '#shared/pipeline/replayOutcome'
 import { entryAt, settingsSchedule, type SettingsInForce } from '#shared/pipeline/settingsInForce'
-import { alarmRules, indicatorPoints, indicatorSettingsVersions, replays, replaySamples, tags, sites } from '../../db/schema'
+import { alarmRules, indicatorPoints, indicatorSettingsVersions, replays, replaySamples, tags, sites, units } from '../../db/schema'
 import type { Db, DbExecutor } from '../../utils/db'
 import { findTagSettings } from '../indicatorSettings/settings'
 import type { ReplayFileSamples } from './replayFile'
@@ -14,10 +14,10 @@ export class ReplayFileMissing extends Error {
   }
 }
 
-/** The tag named by a replay does not exist. */
+/** The tag or unit named by a replay does not exist. */
 export class ReplayTagMissing extends Error {
-  constructor(tagId: number) {
-    super(`tagId: tag ${tagId} not found`)
+  constructor(what: 'tag' | 'unit', id: number) {
+    super(`${what}Id: ${what} ${id} not found`)
   }
 }
 
@@ -27,18 +27,20 @@ export class ReplayTagMissing extends Error {
  * over it. So are the tag's enabled rules as they are now.
  */
 export async function createReplay(tx: DbExecutor, input: ReplayCreate, userId: number) {
-  const found = await findTagSettings(tx, input.tagId)
-  if (!found) throw new ReplayTagMissing(input.tagId)
-  const rules = await rulesToReplay(tx, input.tagId)
+  if (input.unitId !== undefined) return createUnitReplay(tx, { ...input, unitId: input.unitId }, userId)
+  const tagId = input.tagId!
+  const found = await findTagSettings(tx, tagId)
+  if (!found) throw new ReplayTagMissing('tag', tagId)
+  const rules = await rulesToReplay(tx, { tagId })
   if (input.fileOf !== undefined) {
     const [earlier] = await tx.select({ source: replays.source }).from(replays).where(eq(replays.id, input.fileOf))
     if (earlier?.source !== 'upload') throw new ReplayFileMissing(input.fileOf)
   }
   // Versions in force belong to the tag's stored history; a file runs under one set throughout.
-  const inForce = input.settings === undefined && input.fileOf === undefined ? await versionsInForce(tx, input.tagId) : null
+  const inForce = input.settings === undefined && input.fileOf === undefined ? await versionsInForce(tx, tagId) : null
   const [row] = await tx.insert(replays).values({
     siteId: found.tag.siteId,
-    tagId: input.tagId,
+    tagId,
     fromTime: input.from,
     toTime: input.to,
     eventTime: input.eventTime ?? null,
@@ -71,7 +73,7 @@ export async function createFileReplay(tx: DbExecutor, input: {
   tagId: number, eventTime?: Date, warningWindowMinutes: number, note: string, file: ReplayFileSamples
 }, userId: number) {
   const found = await findTagSettings(tx, input.tagId)
-  if (!found) throw new ReplayTagMissing(input.tagId)
+  if (!found) throw new ReplayTagMissing('tag', input.tagId)
   const { timesMs, values, qualities } = input.file
   const [row] = await tx.insert(replays).values({
     siteId: found.tag.siteId,
@@ -83,7 +85,7 @@ export async function createFileReplay(tx: DbExecutor, input: {
     note: input.note,
     source: 'upload',
     settings: found.current,
-    rules: await rulesToReplay(tx, input.tagId),
+    rules: await rulesToReplay(tx, { tagId: input.tagId }),
     createdBy: userId,
   }).returning()
   for (let from = 0; from < timesMs.length; from += FILE_ROWS_PER_INSERT) {
@@ -106,17 +108,44 @@ async function versionsInForce(tx: DbExecutor, tagId: number): Promise<SettingsI
   return settingsSchedule(versions.map(v => ({ ...v, lastPointS: v.lastPointS === null ? null : Number(v.lastPointS) })))
 }
 
-/** The tag's enabled rules as they are now, in the order the live task evaluates them. */
-export async function rulesToReplay(tx: DbExecutor, tagId: number): Promise<ReplayRule[]> {
+/**
+ * Records a replay of a unit's slow-mode rules over the fits the live task recorded in the range
+ * (unit_slow_mode): the fits depend on every tag's window, so there are no settings of its own.
+ */
+async function createUnitReplay(tx: DbExecutor, input: ReplayCreate & { unitId: number }, userId: number) {
+  const [unit] = await tx.select({ siteId: units.siteId }).from(units).where(eq(units.id, input.unitId))
+  if (!unit) throw new ReplayTagMissing('unit', input.unitId)
+  const [row] = await tx.insert(replays).values({
+    siteId: unit.siteId,
+    unitId: input.unitId,
+    fromTime: input.from,
+    toTime: input.to,
+    eventTime: input.eventTime ?? null,
+    warningWindowS: input.warningWindowMinutes * 60,
+    note: input.note,
+    settings: null,
+    rules: await rulesToReplay(tx, { unitId: input.unitId }),
+    createdBy: userId,
+  }).returning()
+  return row!
+}
+
+/** The tag's (or the unit's own) enabled rules as they are now, in the order the live task evaluates them. */
+export async function rulesToReplay(tx: DbExecutor, target: { tagId: number } | { unitId: number }): Promise<ReplayRule[]> {
+  const whose = 'tagId' in target
+    ? eq(alarmRules.tagId, target.tagId)
+    : and(eq(alarmRules.unitId, target.unitId), eq(alarmRules.targetKind, 'unit'))
   return tx.select({
     id: alarmRules.id, name: alarmRules.name, measure: alarmRules.measure, alarmClass: alarmRules.alarmClass, priority: alarmRules.priority,
     comparison: alarmRules.comparison, threshold: alarmRules.threshold, deadband: alarmRules.deadband,
     onDelayS: alarmRules.onDelayS, offDelayS: alarmRules.offDelayS,
-  }).from(alarmRules).where(and(eq(alarmRules.tagId, tagId), eq(alarmRules.enabled, true))).orderBy(asc(alarmRules.id))
+  }).from(alarmRules).where(and(whose, eq(alarmRules.enabled, true))).orderBy(asc(alarmRules.id))
 }
 
 const listColumns = {
-  id: replays.id, tagId: replays.tagId, tagCode: tags.code, timeZone: sites.timeZone,
+  id: replays.id, tagId: replays.tagId, unitId: replays.unitId,
+  /** The tag's code, or the unit's for a unit's replay. */
+  targetCode: sql<string>`coalesce(${tags.code}, ${units.code})`, timeZone: sites.timeZone,
   from: replays.fromTime, to: replays.toTime, eventTime: replays.eventTime, note: replays.note,
   alternativeSettings: replays.alternativeSettings, source: replays.source, state: replays.state, progress: replays.progress,
   samplesTotal: replays.samplesTotal, samplesDone: replays.samplesDone, error: replays.error,
@@ -126,7 +155,7 @@ const listColumns = {
 /** The newest replays first, without their results. */
 export async function listReplays(db: Db, limit = 100) {
   return db.select(listColumns).from(replays)
-    .innerJoin(tags, eq(tags.id, replays.tagId)).innerJoin(sites, eq(sites.id, replays.siteId))
+    .leftJoin(tags, eq(tags.id, replays.tagId)).leftJoin(units, eq(units.id, replays.unitId)).innerJoin(sites, eq(sites.id, replays.siteId))
     .orderBy(desc(replays.id)).limit(limit)
 }
 
@@ -137,7 +166,7 @@ export async function getReplay(db: Db, id: number) {
     rules: replays.rules, result: replays.result,
     engineeringUnit: tags.engineeringUnit, samplePeriodS: tags.samplePeriodS,
   }).from(replays)
-    .innerJoin(tags, eq(tags.id, replays.tagId)).innerJoin(sites, eq(sites.id, replays.siteId))
+    .leftJoin(tags, eq(tags.id, replays.tagId)).leftJoin(units, eq(units.id, replays.unitId)).innerJoin(sites, eq(sites.id, replays.siteId))
     .where(eq(replays.id, id))
   return row
 }
