@@ -63,6 +63,8 @@ describe('admin browses a plant OPC UA server and maps its variables', { timeout
     await row.waitFor()
     await row.getByRole('button', { name: 'Nodes' }).click()
 
+    // What the plant shows now, before Brinkline reads it.
+    for (const code of ['PI-701', 'FI-702']) plant.publish(code, 1, Date.now() - 120_000)
     await page.getByRole('button', { name: 'Open Plant' }).click()
     await page.getByRole('button', { name: 'Open Dosing skid' }).click()
     const pressure = page.locator('[data-node-id="ns=1;s=PI-701"]')
@@ -91,16 +93,17 @@ describe('admin browses a plant OPC UA server and maps its variables', { timeout
     await expect.poll(() => form.getByRole('alert').textContent()).toMatch(/tag\.code: must be an ISA-5\.1 style code/)
     await screenshot(page, 'opcua-picker-tag-refused')
     await form.locator('input[name="variable-tag-code"]').fill('FI-712')
-    const subscriptionsBefore = plant.requests.get('CreateMonitoredItemsRequest') ?? 0
     await form.getByRole('button', { name: 'Create tag and read it' }).click()
     await page.getByRole('status').filter({ hasText: 'Tag FI-712 created' }).waitFor()
     await expect.poll(() => page.getByRole('table', { name: 'Node table' }).getByRole('row').count()).toBe(3)
 
-    // The new node table restarts the collector, which subscribes again (IEC 62541-4 §5.12.2);
-    // values the plant sets after that arrive one by one, not only the newest.
-    await eventually('the collector to subscribe to the new node', async () =>
-      ((plant.requests.get('CreateMonitoredItemsRequest') ?? 0) > subscriptionsBefore ? true : undefined))
-    // The plant moves; both values arrive under the tags they were mapped to.
+    // Each new node table restarts the collector, which subscribes again: a variable's current
+    // value is its first report (IEC 62541-4 §5.12.1.4 [from memory]), so once both current values
+    // are stored, the subscription holds both variables and every later change arrives.
+    for (const code of ['PI-711', 'FI-712']) {
+      await eventually(`the current value of ${code}`, async () => ((await storedValues(code)).length > 0 ? true : undefined))
+    }
+    // The plant moves; every value arrives under the tag it was mapped to.
     const t0 = Date.now() - 60_000
     for (let k = 0; k < 5; k++) {
       plant.publish('PI-701', 6 + k / 10, t0 + 1000 * k)
@@ -109,15 +112,15 @@ describe('admin browses a plant OPC UA server and maps its variables', { timeout
     for (const [code, first] of [['PI-711', 6], ['FI-712', 120]] as const) {
       const rows = await eventually(`values of ${code}`, async () => {
         const got = await storedValues(code)
-        return got.length >= 5 ? got : undefined
+        return got.length >= 6 ? got : undefined
       })
       expect(rows.slice(-5).map(r => r.time.getTime())).toEqual([0, 1, 2, 3, 4].map(k => t0 + 1000 * k))
       expect(rows.at(-5)!.value).toBeCloseTo(first, 9)
     }
     // The status columns follow by themselves (the page reads them again every few seconds).
     await expect.poll(() => row.textContent(), { timeout: 60_000 }).toMatch(/connected/)
-    await expect.poll(async () => Number((await row.getByRole('cell').nth(9).textContent())?.replace(/,/g, '')), { timeout: 60_000 })
-      .toBeGreaterThanOrEqual(10)
+    await expect.poll(async () => Number((await row.getByTestId('accepted-count').textContent())?.replace(/,/g, '')), { timeout: 60_000 })
+      .toBeGreaterThanOrEqual(12)
     await screenshot(page, 'opcua-picker-values-arrived')
 
     const audit = await sql`select action, target from audit_log where action like 'opcua.%' or action = 'tag.create' order by id`
