@@ -44,6 +44,10 @@ export NUXT_PUBLIC_URL=$URL
 export MAIL_SMTP_PORT=${MAIL_SMTP_PORT:-1025} MAIL_HTTP_PORT=${MAIL_HTTP_PORT:-1080}
 export NUXT_SMTP_URL=${NUXT_SMTP_URL:-smtp://127.0.0.1:$MAIL_SMTP_PORT}
 export BRINKLINE_SEED_DEMO=1
+# The simulators serve the OPC UA units (shared/demo/opcuaDemo.ts) on this loopback port, and the
+# seed connects Brinkline's collector to it; the client keeps its certificates in the state dir.
+export BRINKLINE_DEMO_OPCUA_PORT=${BRINKLINE_DEMO_OPCUA_PORT:-4840}
+export BRINKLINE_OPCUA_PKI_DIR=${BRINKLINE_OPCUA_PKI_DIR:-$BRINKLINE_STATE_DIR/opcua-pki}
 
 ensure_build
 
@@ -62,7 +66,8 @@ if [ -f simulators/run.ts ]; then
   open_run_log "$BRINKLINE_STATE_DIR/simulators.log"
   # The key reaches the simulators through the environment (BRINKLINE_SIM_KEY, exported above from
   # the credentials file), never on the command line, where `ps` would show it to every user.
-  node --import tsx simulators/run.ts --unit all --url "$URL" --backfill-hours "${SIM_BACKFILL_HOURS:-6}" \
+  SIM_OPCUA_PKI_DIR="$BRINKLINE_STATE_DIR/opcua-plant-pki" node --import tsx simulators/run.ts --unit all --url "$URL" \
+    --backfill-hours "${SIM_BACKFILL_HOURS:-6}" --opcua-port "$BRINKLINE_DEMO_OPCUA_PORT" \
     >> "$BRINKLINE_STATE_DIR/simulators.log" 2>&1 &
   PIDS+=($!)
 fi
@@ -71,6 +76,7 @@ cat <<INFO
 
   Brinkline is running:  $URL
   Local mailbox:         http://127.0.0.1:$MAIL_HTTP_PORT
+  Demo plant OPC UA:     opc.tcp://127.0.0.1:$BRINKLINE_DEMO_OPCUA_PORT (T-400 comes this way; Admin → OPC UA)
 
   Demo sign-ins (password for all: $BRINKLINE_DEMO_PASSWORD)
     operator    operator@harrowgate.example

@@ -5,6 +5,7 @@ import type { Role } from '#shared/utils/roles'
 import type { Db, DbTransaction } from '../../utils/db'
 import { writeAudit } from '../../utils/audit'
 import { seedDemoAlarmRules } from './demoAlarmRules'
+import { seedDemoOpcuaConnection } from './demoOpcuaConnection'
 import { hashIngestKey } from '../ingest/gateways'
 
 export const DEMO_USERS: ReadonlyArray<{ email: string, name: string, role: Role }> = [
@@ -21,7 +22,8 @@ export const DEMO_USERS: ReadonlyArray<{ email: string, name: string, role: Role
  */
 export const DEMO_GATEWAY = 'Demo plant simulators'
 
-export async function seedDemo(db: Db, password: string, hash: (p: string) => Promise<string>, simulatorKey?: string): Promise<void> {
+export async function seedDemo(db: Db, password: string, hash: (p: string) => Promise<string>, simulatorKey?: string,
+  opcuaEndpointUrl?: string): Promise<void> {
   // One hash per user, each with a salt of its own: one shared hash would tell anyone who reads
   // the table that the four accounts share a password.
   const demoUsers: (typeof DEMO_USERS[number] & { passwordHash: string })[] = []
@@ -43,6 +45,7 @@ export async function seedDemo(db: Db, password: string, hash: (p: string) => Pr
     }
     await seedDemoAlarmRules(tx, site!.id)
     if (simulatorKey) await seedSimulatorGateway(tx, site!.id, simulatorKey)
+    if (opcuaEndpointUrl) await seedDemoOpcuaConnection(tx, site!.id, opcuaEndpointUrl)
   })
 }
 
