@@ -78,7 +78,8 @@ export function buildUnitSlowMode(tags: readonly TagSamples[], range: { from: nu
   const skipped = tags.filter(t => !withData.includes(t)).map(t => ({ tagId: t.tagId, reason: 'no samples in the range' }))
   const { gridSeconds, count, minPoints, windowPoints } = slowModeWindow(tags.map(t => t.samplePeriodS), range.to - range.from)
   const empty = {
-    gridSeconds, tagIds: withData.map(t => t.tagId), skipped, shares: [], shareSpread: null, recoveryRate: null, history: { time: [], recoveryRate: [] },
+    gridSeconds, tagIds: withData.map(t => t.tagId), skipped, shares: [], shareSpread: null, recoveryRate: null,
+    history: { time: [], recoveryRate: [] },
   }
   if (withData.length === 0) return { ...empty, reason: 'no tag of this unit has samples in the range' }
   if (count < minPoints) return { ...empty, reason: `${count} grid points of ${gridSeconds} s in the range, need ${minPoints}` }
@@ -131,8 +132,9 @@ export const UNSTABLE_SHARE_POINTS = 20
 export function shareSpreadText(spread: UnitSlowModeView['shareSpread']): { text: string, stable: boolean } | null {
   if (!spread || spread.windows < 2) return null
   const moved = Math.round(100 * Math.max(...spread.high.map((high, j) => high - spread.low[j]!)))
+  const points = `${moved} ${moved === 1 ? 'point' : 'points'}`
   const over = `over the last ${formatDuration(spread.seconds)} (${spread.windows} overlapping fits)`
   return moved > UNSTABLE_SHARE_POINTS
-    ? { stable: false, text: `Not stable: a share moved by up to ${moved} points ${over}. Read the split as rough; the slowest recovery rate is the firmer figure.` }
-    : { stable: true, text: `Steady: every share stayed within ${moved} points ${over}.` }
+    ? { stable: false, text: `Not stable: a share moved by up to ${points} ${over}. Read the split as rough; the slowest recovery rate is the firmer figure.` }
+    : { stable: true, text: `Steady: every share stayed within ${points} ${over}.` }
 }

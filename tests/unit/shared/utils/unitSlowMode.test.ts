@@ -88,6 +88,10 @@ describe('shareSpreadText', () => {
     expect(shareSpreadText({ low: [0.5, 0.45], high: [0.55, 0.5], windows: 4, seconds: 120 }))
       .toEqual({ stable: true, text: 'Steady: every share stayed within 5 points over the last 2 min (4 overlapping fits).' })
   })
+  it('writes one point in the singular', () => {
+    expect(shareSpreadText({ low: [0.99, 0], high: [1, 0.01], windows: 16, seconds: 480 })?.text)
+      .toBe('Steady: every share stayed within 1 point over the last 8 min (16 overlapping fits).')
+  })
   it('says nothing from a single fit', () => {
     expect(shareSpreadText({ low: [1], high: [1], windows: 1, seconds: 0 })).toBeNull()
     expect(shareSpreadText(null)).toBeNull()
