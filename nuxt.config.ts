@@ -66,6 +66,9 @@ export default defineNuxtConfig({
   },
   runtimeConfig: {
     databaseUrl: '',
+    // The schema owner's address (NUXT_MIGRATION_DATABASE_URL): migrations and the storage job run
+    // as it; the app's own address (NUXT_DATABASE_URL) is a role that owns no tables. Empty: one role.
+    migrationDatabaseUrl: '',
     smtpUrl: '',
     mailFrom: 'Brinkline <brinkline@localhost>',
     publicUrl: 'http://127.0.0.1:3000',

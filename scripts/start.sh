@@ -39,7 +39,12 @@ if [ ! -f "$CREDS" ]; then
 fi
 set -a; source "$CREDS"; set +a
 
-export NUXT_DATABASE_URL=${NUXT_DATABASE_URL:-$(scripts/pg.sh url)}
+# The server connects as a role that owns no tables; migrations run as the schema owner
+# (scripts/pg.sh). A database given from outside brings its own addresses.
+if [ -z "${NUXT_DATABASE_URL:-}" ]; then
+  export NUXT_DATABASE_URL=$(scripts/pg.sh url app)
+  export NUXT_MIGRATION_DATABASE_URL=${NUXT_MIGRATION_DATABASE_URL:-$(scripts/pg.sh url owner)}
+fi
 export NUXT_PUBLIC_URL=$URL
 export MAIL_SMTP_PORT=${MAIL_SMTP_PORT:-1025} MAIL_HTTP_PORT=${MAIL_HTTP_PORT:-1080}
 export NUXT_SMTP_URL=${NUXT_SMTP_URL:-smtp://127.0.0.1:$MAIL_SMTP_PORT}

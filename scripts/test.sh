@@ -28,7 +28,10 @@ cleanup() { scripts/pg.sh stop || true; rm -rf "$BRINKLINE_PGDATA"; }
 trap cleanup EXIT
 scripts/pg.sh start >/dev/null
 
+# The superuser's address: tests make a database per file with it and check rows through it. Each
+# file's server connects as the app role and migrates as the owner (tests/support/server.ts).
 export NUXT_DATABASE_URL=$(scripts/pg.sh url)
+export BRINKLINE_DB_ROLES=1
 export DATABASE_URL=$NUXT_DATABASE_URL
 export NUXT_SESSION_PASSWORD=test-session-password-at-least-32-characters
 export BRINKLINE_DEMO_PASSWORD=demo-test-password

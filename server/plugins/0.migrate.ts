@@ -2,6 +2,7 @@ import { existsSync } from 'node:fs'
 import { dirname, join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { migrate } from 'drizzle-orm/postgres-js/migrator'
+import { grantAppRole } from '../utils/appRoleGrants'
 
 // Migrations run at start-up so a new build never meets an old schema. The built server finds
 // drizzle/ beside itself (copied by the compiled hook); dev and tests find it at the root.
@@ -18,13 +19,23 @@ function migrationsFolder(): string {
 
 let migrated: Promise<void> | undefined
 
-/** Runs pending migrations once; after a failure (database down) the next caller tries again. */
+/**
+ * Runs pending migrations once, as the schema owner, then grants the app role what it may do;
+ * after a failure (database down) the next caller tries again.
+ */
 export function ensureMigrated(): Promise<void> {
-  migrated ??= migrate(useDb(), { migrationsFolder: migrationsFolder() }).catch((err) => {
+  migrated ??= migrateAndGrant().catch((err) => {
     migrated = undefined
     throw err
   })
   return migrated
+}
+
+async function migrateAndGrant() {
+  const owner = useOwnerDb()
+  await migrate(owner, { migrationsFolder: migrationsFolder() })
+  const appRole = separateAppRole()
+  if (appRole) await grantAppRole(owner, appRole)
 }
 
 export default defineNitroPlugin((nitroApp) => {

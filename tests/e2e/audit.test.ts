@@ -21,8 +21,9 @@ beforeAll(async () => {
 })
 
 describe('audit log', () => {
-  // The server connects with NUXT_DATABASE_URL; so does this check: the application's own user.
-  it('refuses UPDATE, DELETE and TRUNCATE to the application\'s database user (trigger, migration 0011)', async () => {
+  // As the superuser, who holds every privilege, so the trigger is what refuses; the app role is
+  // refused before that by its grants (tests/e2e/dbRoles.test.ts).
+  it('refuses UPDATE, DELETE and TRUNCATE even to the superuser (trigger, migration 0011)', async () => {
     const [{ current_user: who }] = await sql`select current_user`
     const url = new URL(process.env.NUXT_DATABASE_URL!)
     expect(who).toBe(decodeURIComponent(url.username))

@@ -11,21 +11,32 @@ export const ROOT = fileURLToPath(new URL('../..', import.meta.url))
 /**
  * A database of this test file's own on the suite's PostgreSQL, so files never see each other's
  * rows (the server migrates and seeds it at start). The test process's NUXT_DATABASE_URL points
- * at it too, for tests/support/db.ts.
+ * at it too, as the superuser, for tests/support/db.ts. Under `npm test` (BRINKLINE_DB_ROLES=1,
+ * roles made by scripts/pg.sh) the database belongs to brinkline_owner, and the server migrates as
+ * that role and serves as brinkline_app, as `npm start` runs it (issue 13 item 8).
  */
-async function createFileDatabase(): Promise<string> {
+async function createFileDatabase(): Promise<Record<string, string>> {
   const suiteUrl = process.env.BRINKLINE_SUITE_DATABASE_URL ?? process.env.NUXT_DATABASE_URL
   if (!suiteUrl) throw new Error('NUXT_DATABASE_URL is not set: run the suite through `npm test`')
   process.env.BRINKLINE_SUITE_DATABASE_URL = suiteUrl
   const name = `brinkline_test_${randomBytes(6).toString('hex')}`
+  const roles = process.env.BRINKLINE_DB_ROLES === '1'
   const admin = postgres(suiteUrl, { max: 1, onnotice: () => {} })
-  await admin.unsafe(`create database ${name}`)
+  await admin.unsafe(roles ? `create database ${name} owner brinkline_owner` : `create database ${name}`)
+  // The replay queue (pg-boss) makes its own schema, as the app role.
+  if (roles) await admin.unsafe(`grant create on database ${name} to brinkline_app`)
   await admin.end()
-  const url = new URL(suiteUrl)
-  url.pathname = `/${name}`
-  process.env.NUXT_DATABASE_URL = url.toString()
-  process.env.DATABASE_URL = url.toString()
-  return url.toString()
+  const as = (user?: string) => {
+    const url = new URL(suiteUrl)
+    url.pathname = `/${name}`
+    if (user) url.username = user
+    return url.toString()
+  }
+  process.env.NUXT_DATABASE_URL = as()
+  process.env.DATABASE_URL = as()
+  if (!roles) return { NUXT_DATABASE_URL: as() }
+  process.env.BRINKLINE_APP_DATABASE_URL = as('brinkline_app')
+  return { NUXT_DATABASE_URL: as('brinkline_app'), NUXT_MIGRATION_DATABASE_URL: as('brinkline_owner') }
 }
 
 /**
@@ -41,8 +52,8 @@ const WORKERS_OFF = { BRINKLINE_OPCUA_COLLECTOR: '0', BRINKLINE_REPLAY_WORKER: '
  * (MANUAL_TICKS_ENV), and the background workers are off unless asked for (WORKERS_OFF).
  */
 export async function setupBuiltServer(env: Record<string, string> = {}, options: { port?: number } = {}) {
-  const databaseUrl = await createFileDatabase()
-  fileServerEnv = { NUXT_DATABASE_URL: databaseUrl, ...WORKERS_OFF, ...env }
+  const databaseEnv = await createFileDatabase()
+  fileServerEnv = { ...databaseEnv, ...WORKERS_OFF, ...env }
   // Registered here, while the file is being collected: a hook added later (from inside a
   // beforeAll, where instances are usually started) would never run.
   afterAll(() => Promise.all([...runningInstances].map(stop => stop('SIGKILL'))))

@@ -20,7 +20,7 @@ export async function runStorageMaintenance(db: Db, nowMs = Date.now()): Promise
   const relocatedDays = await relocateDefaultRows(db, nowMs)
   const retention = await applyRetention(db, nowMs)
   await analyzeRecentPartitions(db, [...await listPartitions(db, 'samples'), ...await listPartitions(db, 'samples_minute')], nowMs)
-  const sizes = await tableSizes(db)
+  const sizes = await tableSizes(db, { countUnanalysed: true })
   const rowsOf = (name: string) => sizes.find(t => t.name === name)?.rows ?? 0
   const bytes = await databaseBytes(db)
   await db.$sql`insert into storage_snapshots (taken_at, database_bytes, sample_rows, archive_rows)

@@ -1,13 +1,14 @@
 import type { Db } from '../../utils/db'
 
 // Sizes as PostgreSQL reports them: bytes on disk (tables with their indexes and TOAST), rows
-// from the planner's statistics (reltuples, kept by ANALYZE and autovacuum), counted exactly
-// only for a table never analysed yet, which is a new and so a small one.
+// from the planner's statistics (reltuples, kept by ANALYZE and autovacuum). A table never
+// analysed yet (a new, so a small one) is counted exactly by the storage job, which owns the
+// partitions; a request, under the app role, may not read a partition directly and counts it 0.
 
 export interface TableSize { name: string, bytes: number, rows: number }
 
 /** Every table of the schema, each partitioned table with its partitions summed under its name. */
-export async function tableSizes(db: Db): Promise<TableSize[]> {
+export async function tableSizes(db: Db, options: { countUnanalysed?: boolean } = {}): Promise<TableSize[]> {
   const rows = await db.$sql<{ name: string, relname: string, bytes: string, estimate: number }[]>`
     select coalesce(parent.relname, c.relname) as name, c.relname, pg_total_relation_size(c.oid)::bigint as bytes, c.reltuples::float8 as estimate
     from pg_class c join pg_namespace n on n.oid = c.relnamespace
@@ -15,7 +16,7 @@ export async function tableSizes(db: Db): Promise<TableSize[]> {
     where n.nspname = 'public' and c.relkind = 'r'`
   const byName = new Map<string, TableSize>()
   for (const r of rows) {
-    const rowsOf = r.estimate >= 0 ? r.estimate : await exactCount(db, r.relname)
+    const rowsOf = r.estimate >= 0 ? r.estimate : options.countUnanalysed ? await exactCount(db, r.relname) : 0
     const entry = byName.get(r.name) ?? { name: r.name, bytes: 0, rows: 0 }
     entry.bytes += Number(r.bytes)
     entry.rows += Math.round(rowsOf)

@@ -4,6 +4,7 @@ export default defineTask<MaintenanceReport | string>({
   meta: { name: 'storage:maintain', description: 'Sample partitions ahead, raw windows applied (archive first), size snapshot' },
   async run({ payload }) {
     if (payload.scheduledTime && !useRuntimeConfig().storage.scheduled) return { result: 'scheduled runs are switched off' }
-    return { result: await runStorageMaintenance(useDb()) }
+    // As the schema owner: the job makes, analyses and drops partitions.
+    return { result: await runStorageMaintenance(useOwnerDb()) }
   },
 })
