@@ -68,6 +68,20 @@ describe('time-partitioned samples', () => {
     expect(stored!.n).toBe(540)
   })
 
+  // Concurrent batches into a day with no partition yet (as a backfill from several gateways does):
+  // each asks for the partition at once, and every one must be stored, none answered 500.
+  it('stores concurrent batches that all open the same new day', async () => {
+    const tag = await createTestTag(sql, 'TS-961', 'T-400', 1)
+    const dayMs = Date.UTC(2026, 0, 20, 6, 0, 0)
+    const batches = Array.from({ length: 8 }, (_, b) => Array.from({ length: 50 }, (_, i) => ({
+      tag: 'TS-961', time: new Date(dayMs + (b * 50 + i) * 1000).toISOString(), value: 20 + (i % 7),
+    })))
+    const answers = await Promise.all(batches.map(batch => ingest(batch)))
+    expect(answers.map(a => a.status), JSON.stringify(answers.find(a => a.status !== 200)?.body)).toEqual(batches.map(() => 200))
+    const rows = await sql`select tableoid::regclass::text as part, count(*)::int as n from samples where tag_id = ${tag} group by 1`
+    expect(rows.map(r => [r.part, r.n])).toEqual([[dayPartition(dayMs), 400]])
+  })
+
   it('the storage job makes the days ahead and moves rows the default partition caught into their day', async () => {
     // Straight into the table, as a bulk load would: no partition exists for this day yet.
     const strayMs = Date.UTC(2026, 1, 11, 12, 0, 0)
