@@ -12,7 +12,7 @@ const EXPECTED_NAV: Record<Role, string[]> = {
   operator: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health'],
   engineer: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health', 'Workbench', 'Upload history'],
   supervisor: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health'],
-  admin: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health', 'Users', 'Gateways', 'OPC UA', 'Notification routes', 'Audit log'],
+  admin: ['Overview', 'Alarms', 'Units', 'Tags', 'Shift log', 'Incidents', 'Alarm health', 'Users', 'Gateways', 'OPC UA', 'Notification routes', 'Audit log', 'Storage'],
 }
 
 /** Pages with nothing to list in the seeded demo, and the empty state each must show. The demo
