@@ -31,6 +31,14 @@ export function ensureMigrated(): Promise<void> {
   return migrated
 }
 
+/**
+ * Resolves once this instance's schema is current: what a scheduled task waits for first, so its
+ * first run after a start never meets tables the migrations are still making.
+ */
+export function schemaReady(): Promise<void> {
+  return process.env.BRINKLINE_SKIP_MIGRATE === '1' ? Promise.resolve() : ensureMigrated()
+}
+
 async function migrateAndGrant() {
   const owner = useOwnerDb()
   await migrate(owner, { migrationsFolder: migrationsFolder() })
