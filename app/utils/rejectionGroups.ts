@@ -1,5 +1,5 @@
 import type { LineRejection } from '#shared/utils/csvSamples'
-import { csvRecord } from '#shared/utils/csvField'
+import { REJECTIONS_CSV_HEADER, rejectionCsvRow } from '#shared/utils/rejectionsCsv'
 import { OTHER_REASONS, rejectionCause } from '#shared/utils/rejectionReasons'
 
 export interface RejectionGroup {
@@ -38,6 +38,5 @@ export function groupRejections(
 
 /** The listed rejections as CSV, one row per line, for a spreadsheet or the file's owner. */
 export function rejectionsCsv(rejections: readonly LineRejection[]): string {
-  const rows = [csvRecord(['line', 'column', 'value', 'reason']), ...rejections.map(r => csvRecord([r.line, r.column, r.value, r.reason]))]
-  return `${rows.join('\r\n')}\r\n`
+  return REJECTIONS_CSV_HEADER + rejections.map(rejectionCsvRow).join('')
 }

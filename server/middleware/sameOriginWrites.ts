@@ -25,6 +25,7 @@ const JSON_ONLY = ['application/json']
 const BODY_TYPES_BY_ROUTE: Record<string, readonly string[]> = {
   '/api/uploads/preview': ['text/csv'],
   '/api/uploads/import': ['text/csv'],
+  '/api/uploads/rejections': ['text/csv'],
   '/api/replays/upload': ['text/csv'],
 }
 const ORIGIN_CHECK_EXEMPT = new Set(['/api/ingest'])

@@ -16,6 +16,7 @@ const NAMED_BODY_LIMITS = [
   { method: 'POST', route: '/api/ingest', bytes: MAX_INGEST_BYTES },
   { method: 'POST', route: '/api/uploads/preview', bytes: PREVIEW_MAX_BYTES },
   { method: 'POST', route: '/api/uploads/import', bytes: MAX_UPLOAD_BYTES },
+  { method: 'POST', route: '/api/uploads/rejections', bytes: MAX_UPLOAD_BYTES },
   { method: 'POST', route: '/api/replays/upload', bytes: MAX_REPLAY_FILE_BYTES },
   { method: 'PATCH', route: '/api/incidents/:id', bytes: INCIDENT_FINDINGS_MAX_BYTES },
   { method: 'PUT', route: '/api/admin/opcua/:id/mappings', bytes: OPCUA_MAPPINGS_MAX_BYTES },

@@ -127,6 +127,28 @@ describe('engineer uploads historian CSV', () => {
     await page.close()
   })
 
+  it('downloads every rejected line of a file with more than the import lists (issue 12 item 9)', async () => {
+    const lines = Array.from({ length: 1_200 }, (_, i) => `2025-08-05T10:00:00Z,TI-401,bad-${i}`)
+    const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'many-bad.csv')
+    writeFileSync(file, ['time,tag,value', ...lines].join('\n'))
+    await context.clearCookies()
+    const page = await context.newPage()
+    await signInThroughForm(page, 'engineer')
+    await page.goto(url('/upload'))
+    await page.getByLabel('Historian CSV file').setInputFiles(file)
+    await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
+    await page.getByRole('button', { name: 'Import', exact: true }).click()
+    await expect.poll(() => page.getByTestId('upload-outcome').textContent()).toBe('Nothing was stored: every one of the 1,200 rows was rejected.')
+    await page.getByText('For the CSV of all of them the file is read again on the server').waitFor()
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download all rejected lines (CSV)' }).click()])
+    const csv = readFileSync((await download.path())!, 'utf8').split('\r\n').filter(Boolean)
+    expect(csv[0]).toBe('line,column,value,reason')
+    expect(csv).toHaveLength(1 + 1_200)
+    expect(csv.at(-1)).toMatch(/^1201,value,bad-1199,/)
+    await screenshot(page, 'engineer-upload-all-rejections-download')
+    await page.close()
+  })
+
   it('groups 400 lines with one cause as one row, keeps the result in view and links to the data (issue 12 item 9)', async () => {
     // TI-401 is ranged 0–100 °C, so values from 250 are beyond its physical bound (one range span
     // outside, server/services/ingest/ingest.ts); each reason quotes its own value.

@@ -166,5 +166,6 @@ export const ROLE_MATRIX: Record<string, MatrixEntry> = {
   'POST /api/units': { expect: CONFIGURE },
 
   'POST /api/uploads/import': { expect: CONFIGURE, body: 'csv' },
+  'POST /api/uploads/rejections': { expect: CONFIGURE, body: 'csv' },
   'POST /api/uploads/preview': { expect: CONFIGURE, body: 'csv' },
 }

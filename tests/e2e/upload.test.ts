@@ -136,6 +136,36 @@ describe('POST /api/uploads/import', () => {
     expect((await call('/api/uploads/preview?siteId=1', asOperator)).status).toBe(403)
   })
 
+  // The import lists the first 1,000 rejected lines; the rejections route reads the file again
+  // and gives every one as CSV (RFC 4180 records), storing nothing.
+  it('gives every rejected line of a file as CSV, beyond the 1,000 the import lists, and stores nothing', async () => {
+    const good = Array.from({ length: 10 }, (_, i) => `2025-03-01T00:0${i}:00Z,TI-401,${40 + i},good`)
+    const bad = Array.from({ length: 1_500 }, (_, i) => `2025-03-01T01:00:00Z,TI-401,not-a-number-${i},good`)
+    const csv = ['time,tag,value,quality', ...good, ...bad].join('\n')
+    const imported = await importCsv(csv, { ...LONG_FORMAT, timeZone: 'UTC' })
+    expect(imported.summary).toMatchObject({ stored: 10, rejectedCount: 1_500 })
+    expect(imported.summary.rejections).toHaveLength(1_000)
+    const [before] = await sql`select count(*)::int as n from samples`
+    const res = await fetch(url(`/api/uploads/rejections?${new URLSearchParams({ siteId: String(siteId), ...LONG_FORMAT, timeZone: 'UTC' })}`), {
+      method: 'POST', headers: { cookie: engineer, 'content-type': 'text/csv' }, body: csv,
+    })
+    expect(res.status).toBe(200)
+    expect(res.headers.get('content-type')).toContain('text/csv')
+    const lines = (await res.text()).split('\r\n').filter(Boolean)
+    expect(lines[0]).toBe('line,column,value,reason')
+    expect(lines).toHaveLength(1 + 1_500)
+    // Line numbers count the header as line 1: the bad rows are lines 12 to 1,511.
+    expect(lines.slice(1).map(l => Number(l.split(',')[0]))).toEqual(Array.from({ length: 1_500 }, (_, i) => 12 + i))
+    expect(lines[1]).toContain('value,not-a-number-0,')
+    const [after] = await sql`select count(*)::int as n from samples`
+    expect(after!.n).toBe(before!.n)
+    const operator = await signInAs('operator')
+    const refused = await fetch(url(`/api/uploads/rejections?${new URLSearchParams({ siteId: String(siteId), ...LONG_FORMAT })}`), {
+      method: 'POST', headers: { cookie: operator, 'content-type': 'text/csv' }, body: csv,
+    })
+    expect(refused.status).toBe(403)
+  })
+
   it('a file that breaks mid-way: committed batches stay, the error says how far it got, a re-run is safe', async () => {
     const rows = Array.from({ length: 6_000 }, (_, k) => `${Date.UTC(2025, 4, 1) + k * 1000},JI-302,${50 + (k % 7)}`)
     const broken = `time,tag,value\n${rows.join('\n')}\n${Date.UTC(2025, 4, 2)},JI-302,"51\n${rows.join('\n')}\n`

@@ -36,6 +36,8 @@ export type SampleSink = (samples: ValidSample[], tagIds: Map<string, SiteTag>) 
  */
 export async function* importCsvRecords(db: Db, input: {
   source: CsvSource, plan: ColumnPlan, siteId: number, timeZone: string, dryRun: boolean, store?: SampleSink
+  /** Every rejection as it is found (the summary lists only the first MAX_LISTED_REJECTIONS). */
+  onReject?: (r: LineRejection) => void
 }): AsyncGenerator<UploadEvent> {
   const { source, plan, siteId, timeZone, dryRun } = input
   const store: SampleSink = input.store ?? ((samples, ids) => storeUploadedSamples(db, samples, ids))
@@ -48,6 +50,7 @@ export async function* importCsvRecords(db: Db, input: {
   let pending: PendingSample[] = []
 
   const reject = (r: LineRejection) => {
+    input.onReject?.(r)
     summary.rejectedCount++
     countCause(causes, r)
     if (summary.rejections.length < MAX_LISTED_REJECTIONS) summary.rejections.push(r)
