@@ -1,3 +1,4 @@
+import { useRuntimeConfig } from 'nitropack/runtime'
 import { MAX_FUTURE_SKEW_MS, type SampleClock } from '#shared/utils/sampleBatch'
 import { rawWindowStartMs } from '#shared/utils/rawWindow'
 import type { Db } from '../../utils/db'
