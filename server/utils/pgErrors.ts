@@ -14,6 +14,8 @@ export const FOREIGN_KEY_VIOLATION = '23503'
 export function constraintHttpError(err: unknown, messages: { duplicate?: string, missingReference?: string }): unknown {
   const state = sqlState(err)
   if (state === UNIQUE_VIOLATION && messages.duplicate) return createError({ statusCode: 409, message: messages.duplicate })
-  if (state === FOREIGN_KEY_VIOLATION && messages.missingReference) return createError({ statusCode: 400, message: messages.missingReference })
+  if (state === FOREIGN_KEY_VIOLATION && messages.missingReference) return createError({
+    statusCode: 400, message: messages.missingReference,
+  })
   return err
 }

@@ -33,7 +33,9 @@ export interface AlarmMailFacts {
   latestValue: number | null
   /** Whether the occurrence is still open (not back to normal) now. */
   standing: boolean
-  trend: { tauAr1: number | null, pAr1: number | null, tauVariance: number | null, pVariance: number | null, evidence: string | null } | null
+  trend: {
+    tauAr1: number | null, pAr1: number | null, tauVariance: number | null, pVariance: number | null, evidence: string | null
+  } | null
   fold: { kind: 'projected', seconds: number, lowSeconds: number, highSeconds: number } | { kind: 'none' }
   consequence: string
   likelyCause: string
@@ -105,7 +107,9 @@ export function renderAlarmMail(f: AlarmMailFacts): { subject: string, text: str
 }
 
 /** One mail for many alarms during a flood: one block per alarm, most urgent first. */
-export function renderDigestMail(input: { siteName: string, alarms: AlarmMailFacts[], listLink: string }): { subject: string, text: string } {
+export function renderDigestMail(
+  input: { siteName: string, alarms: AlarmMailFacts[], listLink: string },
+): { subject: string, text: string } {
   const sorted = [...input.alarms].sort((a, b) => priorityRank(a.priority) - priorityRank(b.priority) || a.alarmId - b.alarmId)
   const blocks = sorted.map(f => [
     `- ${PRIORITY_WORD[f.priority]} ${kind(f.alarmClass)} ${target(f)}: ${f.measureLabel} ${f.comparison} ${number(f.threshold)}, ${f.activationCount > 1 ? `raised again (activation ${f.activationCount})` : 'raised'} ${plantTime(f.activatedAt, f.timeZone)} at ${number(f.value)}`,

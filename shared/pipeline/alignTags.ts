@@ -11,7 +11,9 @@ export interface TagSeries {
  * Cells of width `step` seconds ending at `end`; a cell is kept only when every tag has a sample
  * in it. Returns the cell end times and one aligned series per tag.
  */
-export function alignOnGrid(series: readonly TagSeries[], end: number, step: number, cells: number): { times: number[], values: number[][] } {
+export function alignOnGrid(
+  series: readonly TagSeries[], end: number, step: number, cells: number,
+): { times: number[], values: number[][] } {
   const start = end - cells * step
   const grid = series.map(() => new Float64Array(cells).fill(Number.NaN))
   series.forEach((s, j) => {

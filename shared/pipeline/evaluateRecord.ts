@@ -176,7 +176,9 @@ function judgeLook(input: RecordInput, trendStart: number, end: number, time: St
  * on its own and seeded by its own end, so it is judged exactly as its look was; it is only
  * re-tested when the current look passes, which on data without an approach is rare.
  */
-function confirmedEvidence(input: RecordInput, look: Look, trendStart: number, end: number, usable: number, time: StageTimer): TrendEvidence {
+function confirmedEvidence(
+  input: RecordInput, look: Look, trendStart: number, end: number, usable: number, time: StageTimer,
+): TrendEvidence {
   const { settings } = input
   if (look.evidence !== 'slowing down' || trendWindowGrowing(settings, end + 1 - trendStart)) return look.evidence
   const previousEnd = end - settings.evaluateEvery

@@ -27,7 +27,8 @@ const routeFields = z.object({
 }).strict()
 
 const recipientRule = (v: { email?: string | null, role?: string | null }) => (v.email == null) !== (v.role == null)
-const hoursRule = (v: { workStartMinute?: number, workEndMinute?: number }) => v.workStartMinute === undefined || v.workStartMinute !== v.workEndMinute
+const hoursRule = (v: { workStartMinute?: number, workEndMinute?: number }) =>
+  v.workStartMinute === undefined || v.workStartMinute !== v.workEndMinute
 
 export const routeCreateSchema = routeFields
   .refine(recipientRule, { message: 'give either an e-mail address or a role', path: ['email'] })

@@ -2,7 +2,9 @@
 // (quoting, and the leading apostrophe against spreadsheet formulas).
 import { csvRecord } from './csvField'
 
-export interface AuditCsvRow { id: number, at: string, userEmail: string | null, action: string, target: string, address: string, detail: unknown }
+export interface AuditCsvRow {
+  id: number, at: string, userEmail: string | null, action: string, target: string, address: string, detail: unknown
+}
 
 export function auditCsv(rows: readonly AuditCsvRow[]): string {
   const lines = [['id', 'time_utc', 'user', 'action', 'target', 'address', 'detail'].join(',')]

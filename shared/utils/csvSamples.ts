@@ -33,7 +33,10 @@ export function planColumns(header: string[], mapping: {
   const time = indexOf(mapping.timeColumn)
   if (time < 0) return problem('timeColumn', mapping.timeColumn)
   if (mapping.format === 'long') {
-    const named = { tagColumn: mapping.tagColumn!, valueColumn: mapping.valueColumn!, ...(mapping.qualityColumn ? { qualityColumn: mapping.qualityColumn } : {}) }
+    const named = {
+      tagColumn: mapping.tagColumn!, valueColumn: mapping.valueColumn!,
+      ...(mapping.qualityColumn ? { qualityColumn: mapping.qualityColumn } : {}),
+    }
     for (const [field, name] of Object.entries(named)) if (indexOf(name) < 0) return problem(field, name)
     const quality = mapping.qualityColumn ? indexOf(mapping.qualityColumn) : undefined
     return { header, time, long: { tag: indexOf(named.tagColumn), value: indexOf(named.valueColumn), quality } }

@@ -17,7 +17,9 @@ export interface OpenAlarm { alarmClass: 'alarm' | 'alert', name: string }
  * alarm makes it at least "alarm" (an alert at least "warning"), as the pipeline would; otherwise
  * the pipeline's status, or "steady" with "analysis pending" before the pipeline has judged it.
  */
-export function tileStatus(input: { stored: StoredTagStatus | null, latestTimeMs: number | null, samplePeriodS: number, nowMs: number, openAlarm?: OpenAlarm | null }): StoredTagStatus {
+export function tileStatus(input: {
+  stored: StoredTagStatus | null, latestTimeMs: number | null, samplePeriodS: number, nowMs: number, openAlarm?: OpenAlarm | null
+}): StoredTagStatus {
   const limitS = Math.max(NO_DATA_PERIODS * input.samplePeriodS, NO_DATA_FLOOR_SECONDS)
   if (input.latestTimeMs === null) return { status: 'no data', reason: 'no samples received yet' }
   const ageS = (input.nowMs - input.latestTimeMs) / 1000

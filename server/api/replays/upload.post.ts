@@ -55,6 +55,9 @@ export default defineEventHandler(async (event) => {
   setResponseStatus(event, 201)
   return {
     id: replay.id, state: replay.state, advisory: ADVISORY_CAUTION,
-    file: { rowsRead: counts.rowsRead, readings: n, duplicates: counts.duplicates, rejectedCount: counts.rejectedCount, rejections: rejections.slice(0, LISTED_REJECTIONS) },
+    file: {
+      rowsRead: counts.rowsRead, readings: n, duplicates: counts.duplicates, rejectedCount: counts.rejectedCount,
+      rejections: rejections.slice(0, LISTED_REJECTIONS),
+    },
   }
 })

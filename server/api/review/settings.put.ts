@@ -4,5 +4,6 @@ import { reviewSettingsSchema } from '#shared/schemas/incident'
 export default defineEventHandler(async (event) => {
   const user = await requireCapability(event, 'review')
   const input = await validBody(event, reviewSettingsSchema)
-  return saveReviewSettings(useDb(), { userId: user.id, address: clientAddress(event) }, input).catch((err) => { throw reviewHttpError(err) })
+  return saveReviewSettings(useDb(), { userId: user.id, address: clientAddress(event) }, input)
+    .catch((err) => { throw reviewHttpError(err) })
 })

@@ -18,7 +18,8 @@ export default defineEventHandler(async (event) => {
   async function* csv() {
     yield REJECTIONS_CSV_HEADER
     const read = importCsvRecords(db, {
-      source, plan, siteId: site!.id, timeZone: query.timeZone ?? site!.timeZone, dryRun: true, onReject: r => found.push(rejectionCsvRow(r)),
+      source, plan, siteId: site!.id, timeZone: query.timeZone ?? site!.timeZone, dryRun: true,
+      onReject: r => found.push(rejectionCsvRow(r)),
     })
     for await (const line of read) {
       // Rejections gather between progress lines (every 50,000 rows): the memory held stays bounded.

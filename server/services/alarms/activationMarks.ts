@@ -14,7 +14,9 @@ export interface ActivationMark {
 }
 
 /** Activations in [fromS, toS] of a tag's alarms, or of a unit's own (tag-less) alarms, oldest first. */
-export async function findActivationMarks(db: Db, target: { tagId: number } | { unitId: number }, fromS: number, toS: number): Promise<ActivationMark[]> {
+export async function findActivationMarks(
+  db: Db, target: { tagId: number } | { unitId: number }, fromS: number, toS: number,
+): Promise<ActivationMark[]> {
   const where = 'tagId' in target
     ? db.$sql`a.tag_id = ${target.tagId}`
     : db.$sql`a.unit_id = ${target.unitId} and a.tag_id is null`

@@ -57,6 +57,7 @@ export async function updateRule(tx: DbTransaction, id: number, patch: AlarmRule
     const event = open && modeEvent(open.state as AlarmState, patch.mode as RuleMode)
     if (open && event) await transitionAlarm(tx, open, event, ctx, { comment: `rule set ${patch.mode.replace(/_/g, ' ')}` })
   }
-  const changed = Object.fromEntries(Object.keys(patch).map(k => [k, { from: before[k as keyof typeof before], to: rule![k as keyof typeof rule] }]))
+  const changed = Object.fromEntries(Object.keys(patch)
+    .map(k => [k, { from: before[k as keyof typeof before], to: rule![k as keyof typeof rule] }]))
   return { rule: rule!, changed }
 }

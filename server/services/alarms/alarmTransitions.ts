@@ -33,7 +33,9 @@ export const alarmLabel = (alarm: Pick<AlarmRow, 'measure' | 'comparison' | 'thr
  * the new state and appends the alarm event, and an annunciation writes its mail to the outbox —
  * all in the caller's transaction. A refused event throws AlarmTransitionRefused.
  */
-export async function transitionAlarm(tx: DbTransaction, alarm: AlarmRow, event: LifecycleEvent, ctx: ChangeContext, options: TransitionOptions = {}): Promise<AlarmRow> {
+export async function transitionAlarm(
+  tx: DbTransaction, alarm: AlarmRow, event: LifecycleEvent, ctx: ChangeContext, options: TransitionOptions = {},
+): Promise<AlarmRow> {
   const t = applyLifecycleEvent({ state: alarm.state as AlarmState, conditionActive: alarm.conditionActive }, event)
   if (!t.ok) throw new AlarmTransitionRefused([{ alarmId: alarm.id, state: alarm.state, label: alarmLabel(alarm), reason: t.reason }])
   const now = new Date()
@@ -47,7 +49,9 @@ export async function transitionAlarm(tx: DbTransaction, alarm: AlarmRow, event:
   // Every activation of the occurrence (the first, and each re-activation after a return or
   // while set aside) becomes its latest: lists, tiles and mail speak of it, not of the first.
   if (event === 'activate') {
-    Object.assign(set, { activatedAt: options.conditionTime ?? now, activatedValue: options.value ?? null, activationCount: alarm.activationCount + 1 })
+    Object.assign(set, {
+      activatedAt: options.conditionTime ?? now, activatedValue: options.value ?? null, activationCount: alarm.activationCount + 1,
+    })
     if (options.context) set.context = options.context
   }
   // A new annunciation needs a new acknowledgement.

@@ -21,7 +21,9 @@ export async function addToHistorySummary(tx: DbTransaction, alarm: AlarmRow): P
 }
 
 /** The summary's text from the alarms as they are now (each once; activations counted). */
-export async function renderHistorySummary(tx: DbTransaction, row: typeof notificationOutbox.$inferSelect, publicUrl: string, maxAgeMinutes: number) {
+export async function renderHistorySummary(
+  tx: DbTransaction, row: typeof notificationOutbox.$inferSelect, publicUrl: string, maxAgeMinutes: number,
+) {
   const [site] = await tx.select({ name: sites.name }).from(sites).where(eq(sites.id, row.siteId!))
   const facts = await loadAlarmMailFacts(tx, [...new Set(row.alarmIds.map(Number))], publicUrl)
   return renderHistorySummaryMail({

@@ -24,7 +24,9 @@ function inScope(scope: RetiredScope) {
 }
 
 /** Moves the scope's open alarms out of service (retired) or in line with their rule (restored). */
-export async function alignAlarmsWithRetirement(tx: DbTransaction, scope: RetiredScope, retired: boolean, ctx: ChangeContext): Promise<number> {
+export async function alignAlarmsWithRetirement(
+  tx: DbTransaction, scope: RetiredScope, retired: boolean, ctx: ChangeContext,
+): Promise<number> {
   const open = await tx.select({ alarm: alarms, mode: alarmRules.mode }).from(alarms)
     .innerJoin(alarmRules, eq(alarmRules.id, alarms.ruleId))
     .where(and(inScope(scope), ne(alarms.state, 'normal'))).orderBy(alarms.id).for('update', { of: alarms })

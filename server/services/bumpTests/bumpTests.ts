@@ -11,7 +11,8 @@ import { findTagSettings } from '../indicatorSettings/settings'
 export class BumpTestRefused extends Error {}
 
 export async function listBumpTests(db: Db, tagId: number) {
-  const [tag] = await db.select({ id: tags.id, code: tags.code, timeZone: sites.timeZone }).from(tags).innerJoin(sites, eq(sites.id, tags.siteId)).where(eq(tags.id, tagId))
+  const [tag] = await db.select({ id: tags.id, code: tags.code, timeZone: sites.timeZone }).from(tags)
+    .innerJoin(sites, eq(sites.id, tags.siteId)).where(eq(tags.id, tagId))
   if (!tag) return undefined
   const rows = await db.select({ test: bumpTests, recordedByName: users.name }).from(bumpTests)
     .leftJoin(users, eq(users.id, bumpTests.recordedBy)).where(eq(bumpTests.tagId, tagId)).orderBy(desc(bumpTests.stepTime))
@@ -57,7 +58,8 @@ export async function fitStoredBumpTest(tx: DbTransaction, id: number, options: 
 
 /** Recovery rate of the newest indicator point before the step, with its SE from the window that produced it. */
 async function passiveAt(tx: DbTransaction, tagId: number, before: Date, samplePeriodS: number) {
-  const [point] = await tx.select({ ar1: indicatorPoints.ar1, rate: indicatorPoints.recoveryRate, version: indicatorSettingsVersions.settings })
+  const [point] = await tx
+    .select({ ar1: indicatorPoints.ar1, rate: indicatorPoints.recoveryRate, version: indicatorSettingsVersions.settings })
     .from(indicatorPoints).leftJoin(indicatorSettingsVersions, eq(indicatorSettingsVersions.id, indicatorPoints.settingsVersionId))
     .where(and(eq(indicatorPoints.tagId, tagId), lte(indicatorPoints.time, before), sql`${indicatorPoints.recoveryRate} is not null`))
     .orderBy(desc(indicatorPoints.time)).limit(1)

@@ -34,7 +34,10 @@ const slowingDown = (tag: string, unit: string, what: string, action: string): D
   operatorAction: action,
 })
 
-const foldDelays = { onDelay: { evaluations: FOLD_IN_VIEW_DELAYS.onDelayEvaluations }, offDelay: { evaluations: FOLD_IN_VIEW_DELAYS.offDelayEvaluations } }
+const foldDelays = {
+  onDelay: { evaluations: FOLD_IN_VIEW_DELAYS.onDelayEvaluations },
+  offDelay: { evaluations: FOLD_IN_VIEW_DELAYS.offDelayEvaluations },
+}
 
 export const DEMO_RULES: readonly DemoRule[] = [
   { tag: 'TI-101', name: 'R-100 reactor temperature high', measure: 'value', comparison: 'above', threshold: 400, deadband: 2, onDelay: 10, offDelay: 60,
@@ -80,14 +83,16 @@ export function demoRuleColumns(r: DemoRule, tag: { id: number, unitId: number, 
   return {
     targetKind: 'tag' as const, tagId: tag.id, unitId: tag.unitId, name: r.name, measure: r.measure, comparison: r.comparison,
     threshold: r.threshold, deadband: r.deadband ?? 0, onDelayS: seconds(r.onDelay), offDelayS: seconds(r.offDelay),
-    priority: r.priority, alarmClass: r.alarmClass, consequence: r.consequence, likelyCause: r.likelyCause, operatorAction: r.operatorAction,
+    priority: r.priority, alarmClass: r.alarmClass, consequence: r.consequence, likelyCause: r.likelyCause,
+    operatorAction: r.operatorAction,
     timeToRespondS: DEMO_TIME_TO_RESPOND_S[r.priority],
   }
 }
 
 /** Creates the demo rules and route once; rules edited in the app keep their edits. */
 export async function seedDemoAlarmRules(tx: DbTransaction, siteId: number): Promise<void> {
-  const tagRows = await tx.select().from(tags).where(and(eq(tags.siteId, siteId), inArray(tags.code, [...new Set(DEMO_RULES.map(r => r.tag))])))
+  const tagRows = await tx.select().from(tags)
+    .where(and(eq(tags.siteId, siteId), inArray(tags.code, [...new Set(DEMO_RULES.map(r => r.tag))])))
   const byCode = new Map(tagRows.map(t => [t.code, t]))
   const rows = DEMO_RULES.flatMap((r) => {
     const tag = byCode.get(r.tag)

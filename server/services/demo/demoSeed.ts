@@ -40,7 +40,8 @@ export async function seedDemo(db: Db, password: string, hash: (p: string) => Pr
       const [row] = await tx.select().from(units).where(and(eq(units.siteId, site!.id), eq(units.code, code!)))
       await tx.insert(tags).values(unit.tags.map(t => ({
         siteId: site!.id, unitId: row!.id, code: t.code, description: t.description, engineeringUnit: t.engineeringUnit,
-        samplePeriodS: t.samplePeriodSeconds, rangeLow: t.rangeLow, rangeHigh: t.rangeHigh, noiseFloor: t.noiseFloor, quantisationStep: t.resolution,
+        samplePeriodS: t.samplePeriodSeconds, rangeLow: t.rangeLow, rangeHigh: t.rangeHigh, noiseFloor: t.noiseFloor,
+        quantisationStep: t.resolution,
       }))).onConflictDoNothing()
     }
     await seedDemoAlarmRules(tx, site!.id)

@@ -63,7 +63,9 @@ export async function recordFailedBatch(db: Db, gatewayId: number, message: stri
 }
 
 /** Adds one stored batch to the gateway's counters (totals and this hour's), inside the batch's own transaction. */
-export async function countGatewayBatch(tx: TransactionSql, gatewayId: number, counts: { accepted: number, duplicates: number, rejected: number }) {
+export async function countGatewayBatch(
+  tx: TransactionSql, gatewayId: number, counts: { accepted: number, duplicates: number, rejected: number },
+) {
   await tx`
     update gateways set last_contact_at = now(), accepted_count = accepted_count + ${counts.accepted},
       duplicate_count = duplicate_count + ${counts.duplicates}, rejected_count = rejected_count + ${counts.rejected}

@@ -35,7 +35,9 @@ export interface InsertOutcome { accepted: number, conflicts: RejectedSample[] }
  * same batch) is a conflict, not a duplicate: the stored reading is kept and the sample is reported with both
  * values, so nothing changes silently. Runs inside the caller's transaction.
  */
-export async function insertSamples(tx: TransactionSql, batch: ValidSample[], tagIdOf: Map<string, { id: number }>): Promise<InsertOutcome> {
+export async function insertSamples(
+  tx: TransactionSql, batch: ValidSample[], tagIdOf: Map<string, { id: number }>,
+): Promise<InsertOutcome> {
   // Repeats within the batch are settled here: the first sample of a key is the one sent.
   const firstOfKey = new Map<string, ValidSample>()
   const conflicts: RejectedSample[] = []

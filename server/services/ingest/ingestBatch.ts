@@ -27,7 +27,11 @@ export async function ingestBatch(db: Db, input: {
   await ensureSamplePartitions(db, valid.map(s => s.timeMs))
   const { accepted, conflicts } = await db.$sql.begin(async (tx) => {
     const outcome = await insertSamples(tx, valid, tagIds)
-    const counts = { accepted: outcome.accepted, duplicates: valid.length - outcome.accepted - outcome.conflicts.length, rejected: rejected.length + outcome.conflicts.length }
+    const counts = {
+      accepted: outcome.accepted,
+      duplicates: valid.length - outcome.accepted - outcome.conflicts.length,
+      rejected: rejected.length + outcome.conflicts.length,
+    }
     await input.countAgainstSource(tx, counts)
     return outcome
   })

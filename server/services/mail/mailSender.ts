@@ -30,7 +30,9 @@ export interface SendReport { sent: number, failed: number, retrying: number }
  * same Message-ID (outboxMessageId), so a mail system or reader can recognise the duplicate.
  * Exactly-once is not possible across SMTP without the relay's cooperation.
  */
-export async function sendDueMail(db: Db, transport: MailTransport, options: { from: string, publicUrl: string, batch?: number, notifyMaxAgeMinutes?: number }): Promise<SendReport> {
+export async function sendDueMail(
+  db: Db, transport: MailTransport, options: { from: string, publicUrl: string, batch?: number, notifyMaxAgeMinutes?: number },
+): Promise<SendReport> {
   const report: SendReport = { sent: 0, failed: 0, retrying: 0 }
   for (let n = 0; n < (options.batch ?? 50); n++) {
     const outcome = await db.transaction(async (tx) => {
@@ -50,7 +52,8 @@ export async function sendDueMail(db: Db, transport: MailTransport, options: { f
         headers: { 'X-Brinkline-Outbox': String(row.id) },
       }).then(() => null, (err: Error) => err.message || String(err))
       const attempts = row.attempts + 1
-      await tx.insert(outboxAttempts).values({ outboxId: row.id, ok: error === null, error, durationMs: Math.round(performance.now() - started) })
+      await tx.insert(outboxAttempts)
+        .values({ outboxId: row.id, ok: error === null, error, durationMs: Math.round(performance.now() - started) })
       const status = error === null ? 'sent' : attempts >= MAX_MAIL_ATTEMPTS ? 'failed' : 'pending'
       await tx.update(notificationOutbox).set({
         subject: mail.subject, body: keptBody(row.kind, mail.text, error === null), attempts, status, lastError: error,

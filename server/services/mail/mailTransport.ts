@@ -3,7 +3,9 @@ import { useRuntimeConfig } from 'nitropack/runtime'
 
 /** What the sender needs of a mail transport (a test can hand in its own). */
 export interface MailTransport {
-  sendMail(message: { from: string, to: string[], subject: string, text: string, messageId: string, headers?: Record<string, string> }): Promise<unknown>
+  sendMail(message: {
+    from: string, to: string[], subject: string, text: string, messageId: string, headers?: Record<string, string>
+  }): Promise<unknown>
 }
 
 let cached: { url: string, transport: MailTransport } | undefined
@@ -14,7 +16,10 @@ export function useMailTransport(): MailTransport | null {
   if (!url) return null
   if (cached?.url !== url) {
     // Short timeouts: the outbox row stays locked while a message is handed over.
-    cached = { url, transport: createTransport({ url, connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 20_000 } as never) }
+    cached = {
+      url,
+      transport: createTransport({ url, connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 20_000 } as never),
+    }
   }
   return cached.transport
 }

@@ -52,7 +52,10 @@ export async function runPipelineTick(db: Db, ctx: ChangeContext, clock = new St
       order by st.tag_id`)
     return rows.map(r => Number(r.tag_id))
   })
-  const report: TickReport = { tags: 0, skipped: 0, samples: 0, evaluations: 0, shelvesExpired: 0, incidentAlarms: 0, slowModes: 0, ms: 0, evaluationThreads: serverEvaluationPool().threads, stages: {} }
+  const report: TickReport = {
+    tags: 0, skipped: 0, samples: 0, evaluations: 0, shelvesExpired: 0, incidentAlarms: 0, slowModes: 0, ms: 0,
+    evaluationThreads: serverEvaluationPool().threads, stages: {},
+  }
   const batches = Array.from({ length: Math.ceil(candidates.length / TAG_BATCH_SIZE) },
     (_, i) => candidates.slice(i * TAG_BATCH_SIZE, (i + 1) * TAG_BATCH_SIZE))
   const count = (tagIds: number[], done: BatchOutcome) => {
@@ -82,7 +85,9 @@ export async function runPipelineTick(db: Db, ctx: ChangeContext, clock = new St
  * Processes a batch; when it fails, its tags are retried one by one so one tag's failure does not
  * stop the others. A failed tag's claim did not move, so the next tick retries it.
  */
-async function processIsolated(db: Db, tagIds: number[], ctx: ChangeContext, clock: StageClock, count: (tagIds: number[], done: BatchOutcome) => void, horizon: Date) {
+async function processIsolated(
+  db: Db, tagIds: number[], ctx: ChangeContext, clock: StageClock, count: (tagIds: number[], done: BatchOutcome) => void, horizon: Date,
+) {
   try {
     count(tagIds, await processTagBatch(db, tagIds, ctx, clock, horizon))
   }
@@ -134,7 +139,8 @@ async function ensureTagRows(db: Db): Promise<void> {
     .leftJoin(indicatorSettings, eq(indicatorSettings.tagId, tags.id))
     .where(and(eq(tags.watched, true), isNull(indicatorSettings.tagId)))
   if (missing.length > 0) {
-    await db.insert(indicatorSettings).values(missing.map(t => ({ tagId: t.id, ...defaultIndicatorSettings(t.samplePeriodS) }))).onConflictDoNothing()
+    await db.insert(indicatorSettings)
+      .values(missing.map(t => ({ tagId: t.id, ...defaultIndicatorSettings(t.samplePeriodS) }))).onConflictDoNothing()
   }
 }
 

@@ -50,7 +50,9 @@ export async function loadRuleRuntimes(tx: DbTransaction, target: { tagIds: numb
  * lifecycle (raising a new occurrence when none is open) in the caller's transaction.
  * Without a change it does no database work.
  */
-export async function observe(tx: DbTransaction, rt: RuleRuntime, time: number, value: number, context: () => Record<string, unknown>, ctx: ChangeContext): Promise<void> {
+export async function observe(
+  tx: DbTransaction, rt: RuleRuntime, time: number, value: number, context: () => Record<string, unknown>, ctx: ChangeContext,
+): Promise<void> {
   const step = stepCondition(rt.rule, rt.state, time, value)
   rt.state = step.state
   if (!Number.isNaN(value)) {

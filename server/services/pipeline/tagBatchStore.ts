@@ -18,7 +18,9 @@ const foldColumns = (fold: EvaluationPoint['fold']) => ({
 })
 
 /** Stores each tag's points with the settings version that produced them (null: never-edited starting values). */
-export async function storePoints(tx: DbTransaction, byTag: { tagId: number, settingsVersionId: number | null, points: EvaluationPoint[] }[]): Promise<void> {
+export async function storePoints(
+  tx: DbTransaction, byTag: { tagId: number, settingsVersionId: number | null, points: EvaluationPoint[] }[],
+): Promise<void> {
   const rows = byTag.flatMap(({ tagId, settingsVersionId, points }) => points.map(p => ({
     tagId,
     settingsVersionId,
@@ -42,7 +44,8 @@ export interface TagStatusRow {
 /** Derives and upserts the overview status of each tag from its latest evaluation and its open alarms. */
 export async function storeStatuses(tx: DbTransaction, inputs: TagStatusRow[], now: number): Promise<void> {
   if (inputs.length === 0) return
-  const open = await tx.select({ tagId: alarms.tagId, alarmClass: alarms.alarmClass, state: alarms.state, name: alarmRules.name }).from(alarms)
+  const open = await tx.select({ tagId: alarms.tagId, alarmClass: alarms.alarmClass, state: alarms.state, name: alarmRules.name })
+    .from(alarms)
     .innerJoin(alarmRules, eq(alarmRules.id, alarms.ruleId))
     .where(and(inArray(alarms.tagId, inputs.map(i => i.tag.id)), ne(alarms.state, 'normal')))
   const rows = inputs.map(({ tag, latest, latestValue, latestTime }) => {

@@ -32,7 +32,9 @@ interface EvaluatedTag extends TagRecord {
  * A crash anywhere leaves the tags exactly as before, and the next tick redoes them. Samples
  * stamped after `horizon` (now plus the skew allowance) wait: they never move a claim ahead.
  */
-export async function processTagBatch(db: Db, tagIds: number[], ctx: ChangeContext, clock: StageClock, horizon: Date, now = Date.now() / 1000): Promise<BatchOutcome> {
+export async function processTagBatch(
+  db: Db, tagIds: number[], ctx: ChangeContext, clock: StageClock, horizon: Date, now = Date.now() / 1000,
+): Promise<BatchOutcome> {
   return db.transaction(async (tx) => {
     // A batch statement's estimated cost (rows per tag × tags) crosses jit_above_cost, and
     // compiling it takes far longer than running these index probes.

@@ -18,7 +18,10 @@ export function listUnits(db: Db) {
     .orderBy(asc(units.code))
 }
 
-/** Tags in service (retired ones are on the workbench) with their latest sample (one index probe per tag through the samples primary key). */
+/**
+ * Tags in service (retired ones are on the workbench) with their latest sample (one index probe per tag
+ * through the samples primary key).
+ */
 export function listTagsWithLatest(db: Db) {
   return db.select({
     id: tags.id, code: tags.code, description: tags.description, engineeringUnit: tags.engineeringUnit,

@@ -95,7 +95,9 @@ export async function readTagSeriesBetween(db: Db, tagId: number, from: number, 
   const period = tag.samplePeriodS
   const judged = (settings.live.trendWindowSamples * period) + settings.live.detrendBandwidthS
   // Samples after the range's end are left out: the view is the range as it was then.
-  const { times, values } = await loadSamplesSince(db, tagId, Math.min(from - settings.windowSeconds - settings.live.detrendBandwidthS, to - judged), to)
+  const { times, values } = await loadSamplesSince(
+    db, tagId, Math.min(from - settings.windowSeconds - settings.live.detrendBandwidthS, to - judged), to,
+  )
   // Older than the oldest raw sample left, the range is drawn from the archive, if it has it.
   const archive = await loadArchiveBefore(db, tagId, from, times.length ? Math.min(times[0]!, to) : to)
   const count = Math.max(2, Math.min(DISPLAY_POINTS, Math.floor((to - from) / period)))
@@ -107,7 +109,10 @@ export async function readTagSeriesBetween(db: Db, tagId: number, from: number, 
     from,
     to,
     latest: times.length ? { time: times[times.length - 1]!, value: values[values.length - 1]! } : null,
-    settings: { windowSamples: settings.window.samples, windowSeconds: settings.windowSeconds, detrend: settings.detrend, alpha: settings.live.alpha, fromTag: tag.stored !== null },
+    settings: {
+      windowSamples: settings.window.samples, windowSeconds: settings.windowSeconds, detrend: settings.detrend,
+      alpha: settings.live.alpha, fromTag: tag.stored !== null,
+    },
     ...view,
     ...rules,
   }

@@ -132,14 +132,17 @@ async function evaluateUnitReplay(db: Db, replay: ReplayRow): Promise<ReplayResu
   const { rules } = replay
   const observations = fits.flatMap(f => rules.map((_, rule) => ({ rule, time: seconds(f.time), value: f.rate ?? 0, current: null })))
   const changes = replayConditions(rules, rules.map(() => ({ ...INACTIVE })), observations)
-  const firings: ReplayFiring[] = changes.map(c => ({ ruleId: rules[c.rule]!.id, time: c.time, value: finiteOrNull(c.value), change: c.change }))
+  const firings: ReplayFiring[] = changes
+    .map(c => ({ ruleId: rules[c.rule]!.id, time: c.time, value: finiteOrNull(c.value), change: c.change }))
   const span = spanOf(replay)
   const time = fits.map(f => seconds(f.time))
   const rate = Float64Array.from(fits, f => f.rate ?? 0)
   // Fits come one per evaluation interval: drawn as they are unless there are more than the chart holds.
   const chart = fits.length <= CHART_BUCKETS
     ? { time, value: toJsonNumbers(rate) }
-    : (b => ({ time: Array.from(b.time), value: toJsonNumbers(b.mean) }))(bucketSamples(Float64Array.from(time), rate, { from: span.from, to: span.to + 1e-3, count: CHART_BUCKETS }))
+    : (b => ({ time: Array.from(b.time), value: toJsonNumbers(b.mean) }))(
+        bucketSamples(Float64Array.from(time), rate, { from: span.from, to: span.to + 1e-3, count: CHART_BUCKETS }),
+      )
   await db.update(replays).set({ samplesDone: fits.length, progress: 1 }).where(eq(replays.id, replay.id))
   return {
     ...replayOutcome(rules, firings, span),

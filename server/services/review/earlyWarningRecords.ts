@@ -25,7 +25,9 @@ export async function unitEarlyWarningRecords(db: Db, siteId: number, p: Period)
   for (const r of rows) {
     const id = Number(r.incidentId)
     const incident = incidents.get(id) ?? { incidentId: id, unitId: r.unitId, members: [] }
-    const member = { alarmId: Number(r.alarmId), raisedAt: Date.parse(r.raisedAt), measure: r.measure, alarmClass: r.alarmClass, outcome: r.outcome }
+    const member = {
+      alarmId: Number(r.alarmId), raisedAt: Date.parse(r.raisedAt), measure: r.measure, alarmClass: r.alarmClass, outcome: r.outcome,
+    }
     incident.members.push(member)
     incidents.set(id, incident)
   }

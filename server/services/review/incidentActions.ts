@@ -31,7 +31,8 @@ function refuseClosed(row: { id: number, state: IncidentState }, field = 'state'
  */
 async function takeAlarms(tx: DbTransaction, alarmIds: number[], unitId: number): Promise<number[]> {
   const rows = await tx.select({ id: alarms.id, unitId: alarms.unitId, incidentId: incidentAlarms.incidentId, state: incidents.state })
-    .from(alarms).leftJoin(incidentAlarms, eq(incidentAlarms.alarmId, alarms.id)).leftJoin(incidents, eq(incidents.id, incidentAlarms.incidentId))
+    .from(alarms).leftJoin(incidentAlarms, eq(incidentAlarms.alarmId, alarms.id))
+    .leftJoin(incidents, eq(incidents.id, incidentAlarms.incidentId))
     .where(inArray(alarms.id, alarmIds))
   const missing = alarmIds.filter(id => !rows.some(r => r.id === id))
   if (missing.length) throw new ReviewInputError('alarmIds', 404, `alarm ${missing.join(', ')} does not exist`)

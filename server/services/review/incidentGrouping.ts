@@ -23,7 +23,8 @@ export async function incidentWindows(tx: DbExecutor): Promise<Map<number, numbe
 /** The not-closed incidents of a unit with their members' standing intervals. */
 async function openIncidentsOf(tx: DbExecutor, unitId: number): Promise<OpenIncident[]> {
   const rows = await tx.select({ id: incidents.id, raisedAt: alarms.raisedAt, endedAt: endedAtSql })
-    .from(incidents).innerJoin(incidentAlarms, eq(incidentAlarms.incidentId, incidents.id)).innerJoin(alarms, eq(alarms.id, incidentAlarms.alarmId))
+    .from(incidents).innerJoin(incidentAlarms, eq(incidentAlarms.incidentId, incidents.id))
+    .innerJoin(alarms, eq(alarms.id, incidentAlarms.alarmId))
     .where(and(eq(incidents.unitId, unitId), ne(incidents.state, 'closed')))
   const byId = new Map<number, OpenIncident>()
   for (const r of rows) {
@@ -44,7 +45,10 @@ export async function groupNewAlarms(db: Db): Promise<number> {
   return db.transaction(async (tx) => {
     const [lock] = await tx.execute<{ ok: boolean }>(sql`select pg_try_advisory_xact_lock(hashtext('brinkline incident grouping')) as ok`)
     if (!lock?.ok) return 0
-    const fresh = await tx.select({ id: alarms.id, siteId: alarms.siteId, unitId: alarms.unitId, raisedAt: alarms.raisedAt, endedAt: endedAtSql, unitCode: units.code, ruleName: alarmRules.name })
+    const fresh = await tx.select({
+      id: alarms.id, siteId: alarms.siteId, unitId: alarms.unitId, raisedAt: alarms.raisedAt, endedAt: endedAtSql,
+      unitCode: units.code, ruleName: alarmRules.name,
+    })
       .from(alarms).leftJoin(incidentAlarms, eq(incidentAlarms.alarmId, alarms.id))
       .innerJoin(units, eq(units.id, alarms.unitId)).innerJoin(alarmRules, eq(alarmRules.id, alarms.ruleId))
       .where(isNull(incidentAlarms.alarmId)).orderBy(asc(alarms.raisedAt), asc(alarms.id)).limit(GROUPING_BATCH)

@@ -29,7 +29,8 @@ export async function listIncidents(db: Db, q: IncidentListQuery) {
 export function incidentMembers(db: Db | DbExecutor, incidentId: number) {
   return db.select({
     alarmId: alarms.id, ruleId: alarms.ruleId, ruleName: alarmRules.name, priority: alarms.priority, alarmClass: alarms.alarmClass,
-    measure: alarms.measure, comparison: alarms.comparison, threshold: alarms.threshold, state: alarms.state, tagId: alarms.tagId, tagCode: tags.code,
+    measure: alarms.measure, comparison: alarms.comparison, threshold: alarms.threshold, state: alarms.state, tagId: alarms.tagId,
+    tagCode: tags.code,
     raisedAt: alarms.raisedAt, activatedAt: alarms.activatedAt, activationCount: alarms.activationCount, clearedAt: alarms.clearedAt,
     closedAt: alarms.closedAt, outcome: alertOutcomes.outcome, outcomeNote: alertOutcomes.note,
   }).from(incidentAlarms).innerJoin(alarms, eq(alarms.id, incidentAlarms.alarmId)).innerJoin(alarmRules, eq(alarmRules.id, alarms.ruleId))
@@ -40,7 +41,8 @@ export function incidentMembers(db: Db | DbExecutor, incidentId: number) {
 /** One incident with its alarms and its early-warning verdict; undefined when there is none. */
 export async function incidentDetail(db: Db, id: number) {
   const [incident] = await db.select({ incident: incidents, unitCode: units.code, unitName: units.name, timeZone: sites.timeZone })
-    .from(incidents).innerJoin(units, eq(units.id, incidents.unitId)).innerJoin(sites, eq(sites.id, incidents.siteId)).where(eq(incidents.id, id))
+    .from(incidents).innerJoin(units, eq(units.id, incidents.unitId)).innerJoin(sites, eq(sites.id, incidents.siteId))
+    .where(eq(incidents.id, id))
   if (!incident) return undefined
   const members = await incidentMembers(db, id)
   const summary = earlyWarningSummary(members.map(m => ({ ...m, raisedAt: m.raisedAt.getTime() })))
@@ -48,5 +50,8 @@ export async function incidentDetail(db: Db, id: number) {
   const mergeable = await db.select({ id: incidents.id, title: incidents.title, state: incidents.state }).from(incidents)
     .where(and(eq(incidents.unitId, incident.incident.unitId), sql`${incidents.id} <> ${id}`, sql`${incidents.state} <> 'closed'`))
     .orderBy(desc(incidents.id)).limit(50)
-  return { ...incident.incident, unitCode: incident.unitCode, unitName: incident.unitName, timeZone: incident.timeZone, verdict: summary.verdict, members, mergeable }
+  return {
+    ...incident.incident, unitCode: incident.unitCode, unitName: incident.unitName, timeZone: incident.timeZone,
+    verdict: summary.verdict, members, mergeable,
+  }
 }

@@ -44,7 +44,9 @@ async function alarmEvents(db: Db, incidentId: number): Promise<TimelineEntry[]>
 }
 
 /** Shift-log notes in the span about the incident's unit, its tags or its alarms. */
-async function notesAbout(db: Db, incident: { id: number, siteId: number, unitId: number }, from: number, to: number): Promise<TimelineEntry[]> {
+async function notesAbout(
+  db: Db, incident: { id: number, siteId: number, unitId: number }, from: number, to: number,
+): Promise<TimelineEntry[]> {
   const rows = await db.$sql<{ at: string, body: string, authorName: string | null, alarmId: string | null, tagCode: string | null }[]>`
     select n.at, n.body, us.name as "authorName", n.alarm_id as "alarmId", t.code as "tagCode"
     from shift_log_notes n left join users us on us.id = n.author_id left join tags t on t.id = n.tag_id

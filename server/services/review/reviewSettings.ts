@@ -21,9 +21,14 @@ export async function saveReviewSettings(db: Db, actor: ReviewActor, input: { si
   const before = await reviewSettings(db, input.siteId)
   return db.transaction(async (tx) => {
     await tx.insert(siteReviewSettings).values({ siteId: input.siteId, incidentWindowS: input.incidentWindowS, updatedBy: actor.userId })
-      .onConflictDoUpdate({ target: siteReviewSettings.siteId, set: { incidentWindowS: input.incidentWindowS, updatedBy: actor.userId, updatedAt: new Date() } })
+      .onConflictDoUpdate({
+        target: siteReviewSettings.siteId,
+        set: { incidentWindowS: input.incidentWindowS, updatedBy: actor.userId, updatedAt: new Date() },
+      })
     await writeAudit(tx, { userId: actor.userId, action: 'review.settings', target: `site ${input.siteId}`, address: actor.address,
-      detail: { siteId: input.siteId, before: { incidentWindowS: before.incidentWindowS }, after: { incidentWindowS: input.incidentWindowS } } })
+      detail: {
+        siteId: input.siteId, before: { incidentWindowS: before.incidentWindowS }, after: { incidentWindowS: input.incidentWindowS },
+      } })
     return { siteId: input.siteId, incidentWindowS: input.incidentWindowS, isDefault: false }
   })
 }

@@ -18,8 +18,10 @@ const MAX_LISTED = 500
  */
 export async function previewRule(db: Db, rule: AlarmRuleCreate, ruleId?: number) {
   const target = rule.targetKind === 'tag'
-    ? (await db.select({ siteId: tags.siteId, timeZone: sites.timeZone }).from(tags).innerJoin(sites, eq(sites.id, tags.siteId)).where(eq(tags.id, rule.tagId!)))[0]
-    : (await db.select({ siteId: units.siteId, timeZone: sites.timeZone }).from(units).innerJoin(sites, eq(sites.id, units.siteId)).where(eq(units.id, rule.unitId!)))[0]
+    ? (await db.select({ siteId: tags.siteId, timeZone: sites.timeZone }).from(tags)
+        .innerJoin(sites, eq(sites.id, tags.siteId)).where(eq(tags.id, rule.tagId!)))[0]
+    : (await db.select({ siteId: units.siteId, timeZone: sites.timeZone }).from(units)
+        .innerJoin(sites, eq(sites.id, units.siteId)).where(eq(units.id, rule.unitId!)))[0]
   if (!target) return undefined
   const observed = await observations(db, rule)
   const toS = observed.newest ?? Date.now() / 1000

@@ -22,7 +22,10 @@ export async function shiftHandover(db: Db, nowMs = Date.now()) {
   const alarms = standing.filter(a => a.state !== 'shelved').map(a => ({ ...a, raisedThisShift: a.activatedAt.getTime() >= shiftStart }))
   const shelvedEnding = standing.filter(a => a.state === 'shelved' && a.shelvedUntil && a.shelvedUntil.getTime() <= nextShiftEnd)
   return {
-    shift: { from: new Date(shiftStart).toISOString(), to: new Date(nowMs).toISOString(), nextEnds: new Date(nextShiftEnd).toISOString(), hours: SHIFT_HOURS },
+    shift: {
+      from: new Date(shiftStart).toISOString(), to: new Date(nowMs).toISOString(), nextEnds: new Date(nextShiftEnd).toISOString(),
+      hours: SHIFT_HOURS,
+    },
     notes,
     alarms,
     shelvedEnding,

@@ -38,7 +38,8 @@ export async function readStorageReport(db: Db, nowMs = Date.now()) {
       from storage_snapshots where taken_at >= ${new Date(nowMs - 90 * DAY_MS).toISOString()}::timestamptz order by taken_at`,
   ])
   const history = snapshots.map(s => ({
-    takenAtMs: Number(s.takenAtMs), databaseBytes: Number(s.databaseBytes), sampleRows: Number(s.sampleRows), archiveRows: Number(s.archiveRows),
+    takenAtMs: Number(s.takenAtMs), databaseBytes: Number(s.databaseBytes), sampleRows: Number(s.sampleRows),
+    archiveRows: Number(s.archiveRows),
   }))
   const samples = tables.find(t => t.name === 'samples') ?? { name: 'samples', bytes: 0, rows: 0 }
   const archive = tables.find(t => t.name === 'samples_minute') ?? { name: 'samples_minute', bytes: 0, rows: 0 }

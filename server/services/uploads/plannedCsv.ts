@@ -11,7 +11,8 @@ import { openCsvSource } from './csvSource'
  * (empty, unreadable header, wrong encoding, too large) or the column that is not in the header.
  */
 export async function openPlannedCsv(event: H3Event, query: {
-  delimiter?: CsvDelimiter, format: CsvFormat, timeColumn: string, tagColumn?: string, valueColumn?: string, qualityColumn?: string, tagColumns?: string[]
+  delimiter?: CsvDelimiter, format: CsvFormat, timeColumn: string, tagColumn?: string, valueColumn?: string, qualityColumn?: string,
+  tagColumns?: string[]
 }) {
   const source = openCsvSource(limitedBodyStream(event), query.delimiter)
   const refuse = (message: string, statusCode = 400): never => {

@@ -10,6 +10,10 @@ export default defineTask<SendReport | string>({
     await schemaReady()
     const transport = useMailTransport()
     if (!transport) return { result: 'no SMTP relay configured (NUXT_SMTP_URL)' }
-    return { result: await sendDueMail(useDb(), transport, { from: config.mailFrom, publicUrl: config.publicUrl, notifyMaxAgeMinutes: Number(config.notify.maxAgeMinutes) }) }
+    return {
+      result: await sendDueMail(useDb(), transport, {
+        from: config.mailFrom, publicUrl: config.publicUrl, notifyMaxAgeMinutes: Number(config.notify.maxAgeMinutes),
+      }),
+    }
   },
 })

@@ -6,5 +6,6 @@ export default defineEventHandler(async (event) => {
   const user = await requireCapability(event, 'review')
   const { id } = await validParams(event, idParamsSchema)
   const { incidentId } = await validBody(event, incidentMergeSchema)
-  return mergeIncidents(useDb(), { userId: user.id, address: clientAddress(event) }, id, incidentId).catch((err) => { throw reviewHttpError(err) })
+  return mergeIncidents(useDb(), { userId: user.id, address: clientAddress(event) }, id, incidentId)
+    .catch((err) => { throw reviewHttpError(err) })
 })

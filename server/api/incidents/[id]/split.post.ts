@@ -6,7 +6,8 @@ export default defineEventHandler(async (event) => {
   const user = await requireCapability(event, 'review')
   const { id } = await validParams(event, idParamsSchema)
   const input = await validBody(event, incidentSplitSchema)
-  const split = await splitIncident(useDb(), { userId: user.id, address: clientAddress(event) }, id, input).catch((err) => { throw reviewHttpError(err) })
+  const split = await splitIncident(useDb(), { userId: user.id, address: clientAddress(event) }, id, input)
+    .catch((err) => { throw reviewHttpError(err) })
   setResponseStatus(event, 201)
   return split
 })

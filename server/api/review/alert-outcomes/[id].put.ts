@@ -6,5 +6,6 @@ export default defineEventHandler(async (event) => {
   const user = await requireCapability(event, 'review')
   const { id } = await validParams(event, idParamsSchema)
   const input = await validBody(event, alertOutcomeSchema)
-  return markAlertOutcome(useDb(), { userId: user.id, address: clientAddress(event) }, id, input).catch((err) => { throw reviewHttpError(err) })
+  return markAlertOutcome(useDb(), { userId: user.id, address: clientAddress(event) }, id, input)
+    .catch((err) => { throw reviewHttpError(err) })
 })
