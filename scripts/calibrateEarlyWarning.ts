@@ -45,7 +45,9 @@ const settings = { ...defaultIndicatorSettings(1), alpha: 1 }
 
 function looksOf(record: StudyRecord): Look[] {
   const { times, values } = record.series
-  const { points } = evaluateRecord({ tagId: record.id, times, values, firstNew: 0, samplesSinceEvaluation: 0, samplePeriodS: 1, settings, slidingAlpha: 1 })
+  const { points } = evaluateRecord({
+    tagId: record.id, times, values, firstNew: 0, samplesSinceEvaluation: 0, samplePeriodS: 1, settings, slidingAlpha: 1
+  })
   // These records hold no step, so the usable data start one detrend bandwidth after the first sample.
   const usableFrom = times[0]! + settings.detrendBandwidthS
   return points.filter(pt => pt.pAr1 !== null).map(pt => ({

@@ -60,7 +60,9 @@ export function liveRun(series: SampledSeries, samplePeriodS: number, tagId: num
 // Null series: nothing loses stability, so every raise is a false alarm.
 
 /** A demo unit's tags as the server receives them (sensor noise and quantisation included). */
-export function demoUnitRecord(code: UnitCode, seed: number, untilS: number, periodS?: number): { tags: Map<string, SampledSeries>, tipS: number | null, foldS: number | null } {
+export function demoUnitRecord(
+  code: UnitCode, seed: number, untilS: number, periodS?: number
+): { tags: Map<string, SampledSeries>, tipS: number | null, foldS: number | null } {
   const base = CATALOGUE.find(u => u.code === code)!
   const catalogue = { ...base, tags: base.tags.map(t => ({ ...t, samplePeriodSeconds: periodS ?? t.samplePeriodSeconds })) }
   const unit = createUnit(code, { speed: 1, normal: seededNormal(seed) })
@@ -85,7 +87,9 @@ const OU_K = 1 / 600
 const OU_SD = 1
 
 function ouWeek(rng: Rng, options: { mean?: (t: number) => number, sigma?: (t: number) => number }): SampledSeries {
-  return simulateOu({ samples: WEEK_SAMPLES, dt: NULL_PERIOD_S, k: OU_K, sigma: options.sigma ?? OU_SD * Math.sqrt(2 * OU_K), mean: options.mean }, rng)
+  return simulateOu({
+    samples: WEEK_SAMPLES, dt: NULL_PERIOD_S, k: OU_K, sigma: options.sigma ?? OU_SD * Math.sqrt(2 * OU_K), mean: options.mean
+  }, rng)
 }
 
 /** Null scenarios at 60 s: each returns one tag-week. */
@@ -203,7 +207,9 @@ export function normalFormApproaches(runs: number, seed: number, options: StudyO
   const result: ApproachResult = { name: 'normal form ẋ = r − x² (60 s)', runs: 0, detected: 0, leads: [], earlyFoldAlarms: 0, bandHits: 0, projections: 0 }
   const foldMinutes = 5760
   for (let i = 0; i < runs; i++) {
-    const fold = simulateFold({ samples: WEEK_SAMPLES, dt: 1, substeps: 10, r: t => 0.04 * (1 - t / foldMinutes), epsilon: 0, sigma: 0.01, tippedBelow: -0.3 }, rng)
+    const fold = simulateFold({
+      samples: WEEK_SAMPLES, dt: 1, substeps: 10, r: t => 0.04 * (1 - t / foldMinutes), epsilon: 0, sigma: 0.01, tippedBelow: -0.3
+    }, rng)
     const series = { times: Float64Array.from(fold.times, t => t * 60), values: fold.values }
     const run = liveRun(series, 60, 2000 + i, options)
     scoreApproach(result, run, fold.tipTime === null ? null : fold.tipTime * 60, foldMinutes * 60, options.foldThresholdS ?? 900)

@@ -51,7 +51,9 @@ class RouteStats {
       const at = (q: number) => sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] ?? 0
       const errors = [...failures.values()].reduce((n, k) => n + k, 0)
       const byStatus = [...failures].map(([status, n]) => `${n}× ${status}`).join(', ')
-      return { route, requests: ms.length, errors, byStatus, p50: at(0.5), p95: at(0.95), max: sorted.at(-1) ?? 0, kib: bytes / ms.length / 1024 }
+      return {
+        route, requests: ms.length, errors, byStatus, p50: at(0.5), p95: at(0.95), max: sorted.at(-1) ?? 0, kib: bytes / ms.length / 1024
+      }
     })
   }
 }
@@ -135,7 +137,10 @@ export async function run(): Promise<void> {
         if (answer) ingestRejected += (JSON.parse(Buffer.from(answer).toString()) as { rejected: unknown[] }).rejected.length
       }
     }
-    const gateways = Array.from({ length: Math.ceil(ids.codes.length / GATEWAY_TAGS) }, (_, g) => gateway(ids.codes.slice(g * GATEWAY_TAGS, (g + 1) * GATEWAY_TAGS)))
+    const gateways = Array.from(
+      { length: Math.ceil(ids.codes.length / GATEWAY_TAGS) },
+      (_, g) => gateway(ids.codes.slice(g * GATEWAY_TAGS, (g + 1) * GATEWAY_TAGS))
+    )
 
     // Consoles: each polls its screen's routes at the screen's period, starting at its own offset.
     const consoles = SCREENS.flatMap(screen => Array.from({ length: screen.consoles }, async (_, i) => {

@@ -116,7 +116,10 @@ export async function run(): Promise<void> {
     // The same evaluations without the database around them: how much of the tick is the engine.
     const alone = await engineAlone(TAGS, HISTORY + NEW_PER_TICK)
     printTickColumns(`engine alone (no database, ${HISTORY + NEW_PER_TICK} samples per record)`, alone.map(rate => {
-      const report = { tags: TAGS, samples: TAGS * (HISTORY + NEW_PER_TICK), evaluations: rate.evaluations, ms: rate.ms, evaluationThreads: rate.threads, stages: {} }
+      const report = {
+        tags: TAGS, samples: TAGS * (HISTORY + NEW_PER_TICK), evaluations: rate.evaluations, ms: rate.ms, evaluationThreads: rate.threads,
+        stages: {}
+      }
       return { label: threadsLabel(report), report }
     }), every, NEEDS, TICK_INTERVAL_MS)
 

@@ -168,7 +168,10 @@ export class IngestClient {
       this.log(`${outcome.error}: check the gateway key; keeping ${this.queue.length} samples`)
       return this.backoff.maxMs
     }
-    const delay = Math.max(backoffDelay(this.failures, this.backoff, this.random), Math.min(outcome.retryAfterMs ?? 0, this.maxRetryAfterMs))
+    const delay = Math.max(
+      backoffDelay(this.failures, this.backoff, this.random),
+      Math.min(outcome.retryAfterMs ?? 0, this.maxRetryAfterMs)
+    )
     if (this.failures === 1 || this.failures % 10 === 0)
       this.log(`${outcome.error}; retry ${this.failures} in ${Math.round(delay)} ms, ${this.queue.length} samples buffered`)
     return delay

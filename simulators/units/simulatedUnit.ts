@@ -42,7 +42,9 @@ export interface DriftingPlantSpec {
   describe(state: readonly number[], parameter: number, phase: DriftPhase): string
 }
 
-export function createDriftingUnit(spec: DriftingPlantSpec, options: UnitOptions): SimulatedUnit & { readonly cycle: DriftCycle; state(): number[] } {
+export function createDriftingUnit(
+  spec: DriftingPlantSpec, options: UnitOptions
+): SimulatedUnit & { readonly cycle: DriftCycle; state(): number[] } {
   const cycle = new DriftCycle(spec.cycle)
   let state = spec.restingState(cycle.parameter)
   const modelTimePerWallSecond = spec.modelTimePerWallSecond * options.speed

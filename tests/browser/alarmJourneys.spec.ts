@@ -54,7 +54,8 @@ describe('alarm journeys (issue 12)', () => {
   it('shows a re-raised alarm at its latest activation, with the count and when it first began (item 1)', async () => {
     firstMs = Date.now() - 20 * 60_000
     againMs = Date.now() - 2 * 60_000
-    await ingestAll([{ tag: LIVE, time: new Date(firstMs - 1000).toISOString(), value: 95 }, { tag: LIVE, time: new Date(firstMs).toISOString(), value: 104 },
+    await ingestAll([{ tag: LIVE, time: new Date(firstMs - 1000).toISOString(), value: 95 },
+      { tag: LIVE, time: new Date(firstMs).toISOString(), value: 104 },
       { tag: LIVE, time: new Date(firstMs + 1000).toISOString(), value: 96 }])
     await tick()
     await ingestAll([{ tag: LIVE, time: new Date(againMs).toISOString(), value: 111 }])

@@ -171,7 +171,8 @@ describe('engineer uploads historian CSV', () => {
     expect((await rows.first().locator('td').nth(1).textContent())?.trim()).toBe('400')
     expect(await rows.first().getByText(/^line \d+/).count()).toBe(3)
     // The result scrolls into view; the page stays short (it was 11,700 px with a row per line).
-    await expect.poll(() => outcome.evaluate(el => el.getBoundingClientRect().top >= 0 && el.getBoundingClientRect().bottom <= innerHeight)).toBe(true)
+    await expect.poll(() => outcome.evaluate(el =>
+      el.getBoundingClientRect().top >= 0 && el.getBoundingClientRect().bottom <= innerHeight)).toBe(true)
     expect(await page.evaluate(() => document.documentElement.scrollHeight)).toBeLessThan(3_000)
     await screenshot(page, 'engineer-upload-one-cause')
     await page.getByRole('link', { name: 'Show the data' }).click()

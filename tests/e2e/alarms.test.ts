@@ -25,7 +25,8 @@ beforeAll(async () => {
 const T0 = Date.now() - 600_000
 let nextSecond = 0
 /** Samples one second apart, continuing where the last call stopped. */
-const feed = (...values: number[]) => ingestAll(values.map(value => ({ tag: TAG, time: new Date(T0 + 1000 * nextSecond++).toISOString(), value })))
+const feed = (...values: number[]) =>
+  ingestAll(values.map(value => ({ tag: TAG, time: new Date(T0 + 1000 * nextSecond++).toISOString(), value })))
 
 const RULE = {
   targetKind: 'tag', tagId: 0, name: 'TT-901 high limit', measure: 'value', comparison: 'above', threshold: 100, deadband: 5,

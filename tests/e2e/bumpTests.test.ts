@@ -42,7 +42,11 @@ beforeAll(async () => {
   const rng = createRng(5)
   const samples = Array.from({ length: 60 + RESPONSE_S + 1 }, (_, i) => {
     const t = i - 60
-    return { tag: CODE, time: new Date(STEP_UTC_MS + t * 1000).toISOString(), value: 50 + (t >= 0 ? A * Math.exp(-K * t) : 0) + SIGMA * rng.normal() }
+    return {
+      tag: CODE,
+      time: new Date(STEP_UTC_MS + t * 1000).toISOString(),
+      value: 50 + (t >= 0 ? A * Math.exp(-K * t) : 0) + SIGMA * rng.normal()
+    }
   })
   await ingestAll(samples)
 })

@@ -27,7 +27,9 @@ const lastFedMs = () => T0 + 1000 * (next - 1)
 const state = async () => {
   const [row] = await sql`select st.last_sample_time, (select max(time) from indicator_points p where p.tag_id = st.tag_id) as last_point,
       ts.latest_time from tag_analysis_state st join tag_status ts on ts.tag_id = st.tag_id where st.tag_id = ${tagId}`
-  return { claim: row!.last_sample_time as Date | null, lastPoint: row!.last_point as Date | null, statusTime: row!.latest_time as Date | null }
+  return {
+    claim: row!.last_sample_time as Date | null, lastPoint: row!.last_point as Date | null, statusTime: row!.latest_time as Date | null
+  }
 }
 
 describe('a future-dated sample never stalls a tag', () => {

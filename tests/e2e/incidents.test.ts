@@ -257,7 +257,8 @@ describe('the incident on one time axis, and its events as CSV', () => {
     // Variance and recovery rate over the span, against the square wave's (the local-linear trend
     // takes a little of the variance: within 10 %; the rate within 3 %).
     const series = res.body.series[0] as { time: number[], variance: (number | null)[], recoveryRate: (number | null)[] }
-    const inSpan = (values: (number | null)[]) => values.filter((v, i): v is number => v !== null && series.time[i]! * 1000 >= from && series.time[i]! * 1000 <= to)
+    const inSpan = (values: (number | null)[]) =>
+      values.filter((v, i): v is number => v !== null && series.time[i]! * 1000 >= from && series.time[i]! * 1000 <= to)
     const variance = inSpan(series.variance)
     const rate = inSpan(series.recoveryRate)
     expect(variance.length).toBeGreaterThan(100)
@@ -278,7 +279,8 @@ describe('the incident on one time axis, and its events as CSV', () => {
     const picked = await call(`/api/incidents/${incidentId}/timeline?tags=${otherId},${watchedId}`, { cookie: operator })
     expect(picked.status).toBe(200)
     expect(picked.body.series.map((s: { tag: { id: number } }) => s.tag.id)).toEqual([otherId, watchedId])
-    const thin = picked.body.judgement.find((j: { tagId: number }) => j.tagId === otherId) as { time: number[], evidence: string[], p: number[], thinned: boolean }
+    const thin = picked.body.judgement.find((j: { tagId: number }) => j.tagId === otherId) as
+      { time: number[], evidence: string[], p: number[], thinned: boolean }
     expect(thin.thinned).toBe(true)
     expect(thin.time.length).toBeLessThanOrEqual(1004)
     expect(thin.time.length).toBeGreaterThan(800)
@@ -290,7 +292,9 @@ describe('the incident on one time axis, and its events as CSV', () => {
 
     // Bad picks: 400 naming the field.
     const otherUnitTag = Number((await sql`select t.id from tags t join units u on u.id = t.unit_id where u.code = 'D-200' limit 1`)[0]!.id)
-    const fiveTags = unitTags.length >= 5 ? unitTags.slice(0, 5) : [...unitTags, ...Array.from({ length: 5 - unitTags.length }, (_, i) => 900_000 + i)]
+    const fiveTags = unitTags.length >= 5
+      ? unitTags.slice(0, 5)
+      : [...unitTags, ...Array.from({ length: 5 - unitTags.length }, (_, i) => 900_000 + i)]
     for (const tags of ['abc', fiveTags.join(','), `${watchedId},${watchedId}`, String(otherUnitTag)]) {
       const bad = await call(`/api/incidents/${incidentId}/timeline?tags=${tags}`, { cookie: operator })
       expect(bad.status, tags).toBe(400)

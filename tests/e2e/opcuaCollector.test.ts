@@ -153,7 +153,8 @@ describe('OPC UA collector', { timeout: 400_000 }, () => {
     for (let k = 0; k < 10; k++) publish(TAGS[k % 2]!)
     for (const tag of TAGS) {
       const rows = await storedAll(tag, expectedOf(tag).length)
-      expect(rows.map(r => [r.time.getTime(), r.value, r.quality])).toEqual(expectedOf(tag).map(p => [p.timeMs, p.value, QUALITY[p.quality]]))
+      expect(rows.map(r => [r.time.getTime(), r.value, r.quality]))
+        .toEqual(expectedOf(tag).map(p => [p.timeMs, p.value, QUALITY[p.quality]]))
     }
     // The status row is written on the supervisor's next round, which may fall between subscribing
     // (state connected) and the end of the backfill: wait for the round that counts it.
@@ -179,7 +180,8 @@ describe('OPC UA collector', { timeout: 400_000 }, () => {
     postgres('start')
     for (const tag of TAGS) {
       const rows = await storedAll(tag, expectedOf(tag).length)
-      expect(rows.map(r => [r.time.getTime(), r.value, r.quality])).toEqual(expectedOf(tag).map(p => [p.timeMs, p.value, QUALITY[p.quality]]))
+      expect(rows.map(r => [r.time.getTime(), r.value, r.quality]))
+        .toEqual(expectedOf(tag).map(p => [p.timeMs, p.value, QUALITY[p.quality]]))
     }
     // They came through the collector's memory (a store waiting for the database, or the buffer
     // after a refused one): the OPC UA session stayed up and nothing was read back from history.

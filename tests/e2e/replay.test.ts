@@ -160,7 +160,9 @@ describe('replay of stored history', () => {
     expect(created.body.file).toMatchObject({ rowsRead: readings.length + 2, readings: readings.length, rejectedCount: 2 })
     expect(created.body.file.rejections.map((r: { line: number, column: string }) => [r.line, r.column])).toEqual([[12, 'value'], [13, 'tag']])
     const fromFile = await waitForReplay(created.body.id)
-    const fromHistory = await replayToEnd({ tagId: historyTag, from: readings[0]!.time, to: iso(FIXED_START_MS), eventTime: iso(FIXED_START_MS) })
+    const fromHistory = await replayToEnd({
+      tagId: historyTag, from: readings[0]!.time, to: iso(FIXED_START_MS), eventTime: iso(FIXED_START_MS)
+    })
     expect([fromFile.state, fromHistory.state], fromFile.error ?? fromHistory.error).toEqual(['done', 'done'])
     expect(fromFile.source).toBe('upload')
     expect(fromFile.result.samples).toBe(readings.length)
@@ -178,7 +180,8 @@ describe('replay of stored history', () => {
     // The same file again under other settings, as the report's "same file, other settings" asks.
     const settings = (await call(`/api/tags/${fileTag}/indicator-settings`, { cookie: engineer })).body.current
     const again = await replayToEnd({
-      tagId: fileTag, from: readings[0]!.time, to: iso(FIXED_START_MS), fileOf: created.body.id, settings: { ...settings, evaluateEvery: 40 },
+      tagId: fileTag, from: readings[0]!.time, to: iso(FIXED_START_MS), fileOf: created.body.id,
+      settings: { ...settings, evaluateEvery: 40 },
     })
     expect(again.state, again.error).toBe('done')
     expect(again.source).toBe('upload')
@@ -279,7 +282,8 @@ describe('replay of stored history', () => {
     expect(report.settings).toBeNull()
     expect(report.result.samples).toBe(fits!.n)
     expect(report.rules.map((r: { id: number }) => r.id)).toEqual(ruleIds)
-    expect(activations(report.result.firings)).toEqual(live.map(r => ({ ruleId: Number(r.rule_id), ms: new Date(r.condition_time).getTime() })))
+    expect(activations(report.result.firings))
+      .toEqual(live.map(r => ({ ruleId: Number(r.rule_id), ms: new Date(r.condition_time).getTime() })))
     const always = report.result.rules.find((r: { ruleId: number }) => r.ruleId === ruleIds[0])
     expect(always.leadTimeS).toBeCloseTo((FIXED_START_MS - new Date(live[0]!.condition_time).getTime()) / 1000, 3)
 

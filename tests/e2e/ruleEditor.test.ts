@@ -16,7 +16,9 @@ let tagId = 0
 const CODE = 'TT-901'
 const START_MS = Date.UTC(2026, 0, 6, 8, 0, 0)
 // 600 s of a square wave between 9 and 11 with a 20 s period: 30 rising edges through 10.
-const SAMPLES = Array.from({ length: 600 }, (_, i) => ({ tag: CODE, time: new Date(START_MS + i * 1000).toISOString(), value: Math.floor(i / 10) % 2 === 1 ? 11 : 9 }))
+const SAMPLES = Array.from({ length: 600 }, (_, i) => ({
+  tag: CODE, time: new Date(START_MS + i * 1000).toISOString(), value: Math.floor(i / 10) % 2 === 1 ? 11 : 9
+}))
 
 const rule = () => ({
   targetKind: 'tag', tagId, name: 'TT-901 high', measure: 'value', comparison: 'above', threshold: 10, deadband: 0, onDelayS: 0, offDelayS: 0,

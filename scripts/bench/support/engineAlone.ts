@@ -26,7 +26,9 @@ function records(tags: number, samples: number): RecordInput[] {
       times[i] = 1_924_992_000 + i
       values[i] = 50 + x
     }
-    return { tagId: tag + 1, times, values, firstNew: samples - 10, samplesSinceEvaluation: settings.evaluateEvery - 1, samplePeriodS: 1, settings }
+    return {
+      tagId: tag + 1, times, values, firstNew: samples - 10, samplesSinceEvaluation: settings.evaluateEvery - 1, samplePeriodS: 1, settings
+    }
   })
 }
 

@@ -18,7 +18,11 @@ const activate = (at: number): HealthEvent => ({ at, event: 'activate', fromStat
 const ev = (at: number, event: string, fromState: HealthEvent['fromState'], toState: HealthEvent['toState']): HealthEvent => ({ at, event, fromState, toState })
 
 /** One occurrence of a rule, annunciated at each time given (re-activations after a return). */
-function occurrence(ruleId: number, times: number[], opts: { priority?: Priority, alarmClass?: AlarmClass, closedAt?: number | null, events?: HealthEvent[] } = {}): HealthAlarm {
+function occurrence(
+  ruleId: number,
+  times: number[],
+  opts: { priority?: Priority, alarmClass?: AlarmClass, closedAt?: number | null, events?: HealthEvent[] } = {}
+): HealthAlarm {
   const events = opts.events ?? times.flatMap((t, i) => (i === 0 ? [activate(t)] : [ev(t - 1, 'return', 'unacknowledged', 'rtn_unacknowledged'), ev(t, 'activate', 'rtn_unacknowledged', 'unacknowledged')]))
   return {
     id: nextId++, ruleId, ruleName: `rule ${String(ruleId).padStart(2, '0')}`, priority: opts.priority ?? 'low',
@@ -118,7 +122,8 @@ describe('stale alarms (standing for more than 24 h, §S7.4; target < 5 present 
 
 describe('top ten most frequent alarms and their share of the load (ISA-TR18.2.5: ~< 1 %, 5 % at most)', () => {
   it('twelve rules raised 12, 11, …, 1 times: the top ten carry 75 of 78', () => {
-    const alarms = Array.from({ length: 12 }, (_, i) => occurrence(i + 1, Array.from({ length: 12 - i }, (_, k) => T0 + k * 2 * MIN + i * 1000)))
+    const alarms = Array.from({ length: 12 }, (_, i) =>
+      occurrence(i + 1, Array.from({ length: 12 - i }, (_, k) => T0 + k * 2 * MIN + i * 1000)))
     const r = alarmSystemHealth(alarms, HOUR_PERIOD)
     expect(r.alarms.count).toBe(78)
     expect(r.topTen.alarms.map(a => a.count)).toEqual([12, 11, 10, 9, 8, 7, 6, 5, 4, 3])

@@ -63,9 +63,13 @@ describe('early-warning record per unit', () => {
       { incidentId: 6, unitId: 2, members: [alert(8, 0, 'false')] },
     ])
     expect(record).toHaveLength(2)
-    expect(record[0]).toMatchObject({ unitId: 1, limitAlarmIncidents: 3, warnedBefore: 2, medianLeadS: 900, unfollowedByOutcome: { false: 0, averted: 1, unmarked: 1 } })
+    expect(record[0]).toMatchObject({
+      unitId: 1, limitAlarmIncidents: 3, warnedBefore: 2, medianLeadS: 900, unfollowedByOutcome: { false: 0, averted: 1, unmarked: 1 }
+    })
     expect(record[0]!.unfollowedAlerts.map(a => a.alarmId)).toEqual([6, 7])
-    expect(record[1]).toMatchObject({ unitId: 2, limitAlarmIncidents: 0, warnedBefore: 0, medianLeadS: null, unfollowedByOutcome: { false: 1, averted: 0, unmarked: 0 } })
+    expect(record[1]).toMatchObject({
+      unitId: 2, limitAlarmIncidents: 0, warnedBefore: 0, medianLeadS: null, unfollowedByOutcome: { false: 1, averted: 0, unmarked: 0 }
+    })
   })
   it('median of an odd and an even count', () => {
     expect(median([3, 1, 2])).toBe(2)

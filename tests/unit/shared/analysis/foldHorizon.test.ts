@@ -18,7 +18,9 @@ function horizonOf(run: SampledSeries, detrend: DetrendSpec): FoldHorizon {
   for (let i = 0; i < series.time.length; i++) {
     const rate = series.recoveryRate[i]!
     // A window's estimate describes its middle.
-    if (Number.isFinite(rate)) points.push({ time: series.time[i]! - windowSamples * dt / 2, rate, se: recoveryRateSe(rate, dt, windowSamples) })
+    if (Number.isFinite(rate)) points.push({
+      time: series.time[i]! - windowSamples * dt / 2, rate, se: recoveryRateSe(rate, dt, windowSamples)
+    })
   }
   return foldHorizon(points, { windowSeconds: windowSamples * dt, alpha: 0.01, confidence: 0.9, now: 800 })
 }

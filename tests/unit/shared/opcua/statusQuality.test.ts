@@ -9,11 +9,15 @@ describe('OPC UA status code → sample quality (IEC 62541-4 §7.39 severity bit
     for (const c of [StatusCodes.Good, StatusCodes.GoodClamped, StatusCodes.GoodOverload]) expect(qualityOfStatusCode(c.value)).toBe('good')
   })
   it('Uncertain codes are uncertain', () => {
-    const codes = [StatusCodes.UncertainLastUsableValue, StatusCodes.UncertainSensorNotAccurate, StatusCodes.UncertainEngineeringUnitsExceeded]
+    const codes = [
+      StatusCodes.UncertainLastUsableValue, StatusCodes.UncertainSensorNotAccurate, StatusCodes.UncertainEngineeringUnitsExceeded
+    ]
     for (const c of codes) expect(qualityOfStatusCode(c.value)).toBe('uncertain')
   })
   it('Bad codes are bad', () => {
-    const codes = [StatusCodes.BadSensorFailure, StatusCodes.BadCommunicationError, StatusCodes.BadOutOfService, StatusCodes.BadNoCommunication]
+    const codes = [
+      StatusCodes.BadSensorFailure, StatusCodes.BadCommunicationError, StatusCodes.BadOutOfService, StatusCodes.BadNoCommunication
+    ]
     for (const c of codes) expect(qualityOfStatusCode(c.value)).toBe('bad')
   })
 })

@@ -49,7 +49,8 @@ describe('steps restart the windows', () => {
     const after = points.filter(p => p.time >= 450)
     expect(after.every(p => p.evidence !== 'slowing down')).toBe(true)
     const firstJudgedAfter = after.find(p => p.evidence !== null)
-    if (firstJudgedAfter) expect(firstJudgedAfter.time + 1 - 450).toBeGreaterThanOrEqual(settings.detrendBandwidthS + settings.minTrendSamples)
+    if (firstJudgedAfter) expect(firstJudgedAfter.time + 1 - 450)
+      .toBeGreaterThanOrEqual(settings.detrendBandwidthS + settings.minTrendSamples)
   })
 })
 
@@ -59,7 +60,9 @@ describe('a fold approach against a steady series (seeded, many records)', () =>
   const FOLD = 1_300
   const RECORDS = 30
   const last = (seed: number, fold: boolean) => {
-    const series = simulateOu({ samples: 1_200, dt: 1, k: fold ? (t: number) => 0.5 * Math.sqrt(1 - t / FOLD) : 0.5, sigma: 0.2 }, createRng(seed))
+    const series = simulateOu({
+      samples: 1_200, dt: 1, k: fold ? (t: number) => 0.5 * Math.sqrt(1 - t / FOLD) : 0.5, sigma: 0.2
+    }, createRng(seed))
     return evaluate(series.times, series.values, seed).at(-1)!
   }
   const approaches = Array.from({ length: RECORDS }, (_, s) => last(100 + s, true))
@@ -91,7 +94,9 @@ describe('once the trend window slides, slowing down takes two looks in a row', 
   const records = Array.from({ length: 20 }, (_, s) => {
     const series = simulateOu({ samples: 1_200, dt: 1, k: (t: number) => 0.5 * Math.sqrt(1 - t / FOLD), sigma: 0.2 }, createRng(300 + s))
     const times = series.times.map(t => t * period)
-    return evaluateRecord({ tagId: s, times, values: series.values, firstNew: 0, samplesSinceEvaluation: 0, samplePeriodS: period, settings: sliding }).points
+    return evaluateRecord({
+      tagId: s, times, values: series.values, firstNew: 0, samplesSinceEvaluation: 0, samplePeriodS: period, settings: sliding
+    }).points
   })
   const slidingAlpha = slidingLookAlpha(sliding, period)
   const usableFrom = sliding.detrendBandwidthS / period

@@ -8,7 +8,9 @@ import { deriveTagStatus } from '#shared/pipeline/tagStatus'
 const settings = defaultIndicatorSettings(1)
 const times = Float64Array.from({ length: 40 }, (_, i) => i)
 const values = Float64Array.from(times, t => Math.sin(t))
-const warming = evaluateRecord({ tagId: 1, times, values, firstNew: 39, samplesSinceEvaluation: settings.evaluateEvery - 1, samplePeriodS: 1, settings }).points[0]!
+const warming = evaluateRecord({
+  tagId: 1, times, values, firstNew: 39, samplesSinceEvaluation: settings.evaluateEvery - 1, samplePeriodS: 1, settings
+}).points[0]!
 const status = (latest: typeof warming) => deriveTagStatus({ now: 40, latestTime: 39, samplePeriodS: 1, latest, openAlarms: [] })
 
 describe('tile status of a tag that is not judged yet', () => {
@@ -26,7 +28,9 @@ describe('tile status of a tag that is not judged yet', () => {
     const n = 200
     const t = Float64Array.from({ length: n }, (_, i) => i)
     const v = Float64Array.from(t, x => Math.sin(x / 3) + 0.3 * Math.cos(x * 1.7))
-    const point = evaluateRecord({ tagId: 1, times: t, values: v, firstNew: n - 1, samplesSinceEvaluation: settings.evaluateEvery - 1, samplePeriodS: 1, settings }).points[0]!
+    const point = evaluateRecord({
+      tagId: 1, times: t, values: v, firstNew: n - 1, samplesSinceEvaluation: settings.evaluateEvery - 1, samplePeriodS: 1, settings
+    }).points[0]!
     expect(point.quality).toBeNull()
     expect(point.evidence).toBeNull()
     expect(deriveTagStatus({ now: n, latestTime: n - 1, samplePeriodS: 1, latest: point, openAlarms: [] }))
