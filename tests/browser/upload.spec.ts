@@ -28,6 +28,20 @@ const CSV = [
   '2025-08-04 14:00:05,XX-900,1.0,good',
 ].join('\n')
 
+/** As an engineer on the upload page: a file of these lines, its preview, then Import. */
+async function importThroughPage(name: string, lines: string[]) {
+  const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), name)
+  writeFileSync(file, lines.join('\n'))
+  await context.clearCookies()
+  const page = await context.newPage()
+  await signInThroughForm(page, 'engineer')
+  await page.goto(url('/upload'))
+  await page.getByLabel('Historian CSV file').setInputFiles(file)
+  await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
+  await page.getByRole('button', { name: 'Import', exact: true }).click()
+  return page
+}
+
 describe('engineer uploads historian CSV', () => {
   it('previews, dry-runs, imports and sees the summary', async () => {
     const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'fenwick-history.csv')
@@ -95,15 +109,7 @@ describe('engineer uploads historian CSV', () => {
 
   it('says plainly when nothing was stored, groups the rejections by reason and offers to add the unknown tag', async () => {
     const lines = Array.from({ length: 40 }, (_, i) => `2025-08-04T15:00:${String(i).padStart(2, '0')}Z,XX-901,${i}`)
-    const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'wrong-site.csv')
-    writeFileSync(file, ['time,tag,value', ...lines, '2025-08-04 25:00:00,TI-401,1'].join('\n'))
-    await context.clearCookies()
-    const page = await context.newPage()
-    await signInThroughForm(page, 'engineer')
-    await page.goto(url('/upload'))
-    await page.getByLabel('Historian CSV file').setInputFiles(file)
-    await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
-    await page.getByRole('button', { name: 'Import', exact: true }).click()
+    const page = await importThroughPage('wrong-site.csv', ['time,tag,value', ...lines, '2025-08-04 25:00:00,TI-401,1'])
     const outcome = page.getByTestId('upload-outcome')
     await expect.poll(() => outcome.textContent()).toBe('Nothing was stored: every one of the 41 rows was rejected.')
     const rows = page.getByRole('table', { name: 'Rejections by reason' }).locator('tbody tr')
@@ -129,15 +135,7 @@ describe('engineer uploads historian CSV', () => {
 
   it('downloads every rejected line of a file with more than the import lists (issue 12 item 9)', async () => {
     const lines = Array.from({ length: 1_200 }, (_, i) => `2025-08-05T10:00:00Z,TI-401,bad-${i}`)
-    const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'many-bad.csv')
-    writeFileSync(file, ['time,tag,value', ...lines].join('\n'))
-    await context.clearCookies()
-    const page = await context.newPage()
-    await signInThroughForm(page, 'engineer')
-    await page.goto(url('/upload'))
-    await page.getByLabel('Historian CSV file').setInputFiles(file)
-    await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
-    await page.getByRole('button', { name: 'Import', exact: true }).click()
+    const page = await importThroughPage('many-bad.csv', ['time,tag,value', ...lines])
     await expect.poll(() => page.getByTestId('upload-outcome').textContent()).toBe('Nothing was stored: every one of the 1,200 rows was rejected.')
     await page.getByText('For the CSV of all of them the file is read again on the server').waitFor()
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download all rejected lines (CSV)' }).click()])
@@ -154,15 +152,7 @@ describe('engineer uploads historian CSV', () => {
     // outside, server/services/ingest/ingest.ts); each reason quotes its own value.
     const good = Array.from({ length: 20 }, (_, i) => `2025-08-06T10:00:${String(i).padStart(2, '0')}Z,TI-401,41.${i % 10}`)
     const beyond = Array.from({ length: 400 }, (_, i) => `2025-08-06T11:${String(Math.floor(i / 60)).padStart(2, '0')}:${String(i % 60).padStart(2, '0')}Z,TI-401,${250 + i}`)
-    const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'tank-history.csv')
-    writeFileSync(file, ['time,tag,value', ...good, ...beyond].join('\n'))
-    await context.clearCookies()
-    const page = await context.newPage()
-    await signInThroughForm(page, 'engineer')
-    await page.goto(url('/upload'))
-    await page.getByLabel('Historian CSV file').setInputFiles(file)
-    await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
-    await page.getByRole('button', { name: 'Import', exact: true }).click()
+    const page = await importThroughPage('tank-history.csv', ['time,tag,value', ...good, ...beyond])
     const outcome = page.getByTestId('upload-outcome')
     await expect.poll(() => outcome.textContent()).toBe('20 samples stored, 400 rejected.')
     const rows = page.getByRole('table', { name: 'Rejections by reason' }).locator('tbody tr')

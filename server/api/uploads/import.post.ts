@@ -7,18 +7,17 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'engineer')
   const query = await validQuery(event, uploadImportQuerySchema)
   const db = useDb()
-  const site = await findSite(db, query.siteId)
-  if (!site) throw createError({ statusCode: 400, message: `siteId: no site with id ${query.siteId}` })
+  const site = await requireUploadSite(db, query.siteId)
   const { source, plan } = await openPlannedCsv(event, query)
   const timeZone = query.timeZone ?? site.timeZone
   const address = clientAddress(event)
 
   async function* ndjson() {
-    for await (const line of importCsvRecords(db, { source, plan, siteId: site!.id, timeZone, dryRun: query.dryRun })) {
+    for await (const line of importCsvRecords(db, { source, plan, siteId: site.id, timeZone, dryRun: query.dryRun })) {
       if (line.type !== 'progress' && !query.dryRun) {
         const { rejections: _listed, ...counts } = line.summary
         await writeAudit(db, {
-          userId: user.id, action: 'samples.upload', target: `site:${site!.code}`, address,
+          userId: user.id, action: 'samples.upload', target: `site:${site.code}`, address,
           detail: { ...counts, format: query.format, timeZone, ...(line.type === 'error' ? { error: line.message } : {}) },
         }).catch(err => console.error('[uploads:import] audit', err))
       }

@@ -11,14 +11,13 @@ export default defineEventHandler(async (event) => {
   await requireRole(event, 'engineer')
   const query = await validQuery(event, uploadImportQuerySchema)
   const db = useDb()
-  const site = await findSite(db, query.siteId)
-  if (!site) throw createError({ statusCode: 400, message: `siteId: no site with id ${query.siteId}` })
+  const site = await requireUploadSite(db, query.siteId)
   const { source, plan } = await openPlannedCsv(event, query)
   const found: string[] = []
   async function* csv() {
     yield REJECTIONS_CSV_HEADER
     const read = importCsvRecords(db, {
-      source, plan, siteId: site!.id, timeZone: query.timeZone ?? site!.timeZone, dryRun: true,
+      source, plan, siteId: site.id, timeZone: query.timeZone ?? site.timeZone, dryRun: true,
       onReject: r => found.push(rejectionCsvRow(r)),
     })
     for await (const line of read) {

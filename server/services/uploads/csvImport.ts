@@ -1,3 +1,4 @@
+import { createError } from 'h3'
 import { eq } from 'drizzle-orm'
 import { sites } from '../../db/schema'
 import { MAX_LISTED_REJECTIONS, UPLOAD_BATCH_SAMPLES } from '#shared/schemas/upload'
@@ -14,8 +15,15 @@ import { siteSampleClock } from '../ingest/sampleClock'
 /** A progress line after this many rows: often enough for a bar, rare enough to be free. */
 export const PROGRESS_EVERY_ROWS = 50_000
 
-export async function findSite(db: Db, id: number) {
+async function findSite(db: Db, id: number) {
   const [site] = await db.select().from(sites).where(eq(sites.id, id))
+  return site
+}
+
+/** The site a file is for, or a 400 naming siteId: every upload route starts here. */
+export async function requireUploadSite(db: Db, id: number) {
+  const site = await findSite(db, id)
+  if (!site) throw createError({ statusCode: 400, message: `siteId: no site with id ${id}` })
   return site
 }
 
