@@ -1,4 +1,3 @@
-import { randomBytes } from 'node:crypto'
 import type { H3Event } from 'h3'
 import { RateLimiterMemory, RateLimiterRes } from 'rate-limiter-flexible'
 import { createSignInLimiter, type SignInLimiter } from '../services/accounts/signInLimits'
@@ -8,17 +7,6 @@ let signInLimiter: SignInLimiter | undefined
 export function useSignInLimiter(): SignInLimiter {
   signInLimiter ??= createSignInLimiter(useDb(), useRuntimeConfig().signIn)
   return signInLimiter
-}
-
-let unknownAccountHash: Promise<string> | undefined
-/**
- * A hash of a random password, checked when the e-mail names no account, so an unknown account
- * costs the same scrypt work as a wrong password and answer times do not tell which exist
- * (OWASP Authentication Cheat Sheet, "authentication responses").
- */
-export function hashForUnknownAccount(): Promise<string> {
-  unknownAccountHash ??= hashPassword(randomBytes(24).toString('base64url'))
-  return unknownAccountHash
 }
 
 let ingestLimiter: RateLimiterMemory | undefined
