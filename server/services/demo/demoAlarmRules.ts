@@ -34,19 +34,22 @@ const slowingDown = (tag: string, unit: string, what: string, action: string): D
   operatorAction: action,
 })
 
-const foldDelays = {
-  onDelay: { evaluations: FOLD_IN_VIEW_DELAYS.onDelayEvaluations },
-  offDelay: { evaluations: FOLD_IN_VIEW_DELAYS.offDelayEvaluations },
-}
+// A fold projected closer than `thresholdS`: a high-priority alarm with the fold-in-view delays
+// (shared/pipeline/indicatorDefaults.ts FOLD_IN_VIEW_DELAYS) and 5 minutes of deadband.
+type RuleTexts = Pick<DemoRule, 'consequence' | 'likelyCause' | 'operatorAction'>
+const foldInView = (tag: string, unit: string, thresholdS: number, texts: RuleTexts): DemoRule => ({
+  tag, name: `${unit} fold in view`, measure: 'fold_horizon', comparison: 'below', threshold: thresholdS, deadband: 300,
+  onDelay: { evaluations: FOLD_IN_VIEW_DELAYS.onDelayEvaluations }, offDelay: { evaluations: FOLD_IN_VIEW_DELAYS.offDelayEvaluations },
+  priority: 'high', alarmClass: 'alarm', ...texts,
+})
 
 export const DEMO_RULES: readonly DemoRule[] = [
   { tag: 'TI-101', name: 'R-100 reactor temperature high', measure: 'value', comparison: 'above', threshold: 400, deadband: 2, onDelay: 10, offDelay: 60,
     priority: 'urgent', alarmClass: 'alarm', consequence: 'Runaway on the hot branch: over-temperature and pressure relief.',
     likelyCause: 'The reactor has ignited to its hot operating state.', operatorAction: 'Start the reactor high-temperature procedure: full cooling, stop the feed.' },
   slowingDown('TI-101', 'R-100', 'The reactor\'s cool operating state', 'Check the cooling-water supply temperature and jacket fouling; prepare to reduce feed per procedure.'),
-  { tag: 'TI-101', name: 'R-100 fold in view', measure: 'fold_horizon', comparison: 'below', threshold: 1200, deadband: 300, onDelay: foldDelays.onDelay, offDelay: foldDelays.offDelay,
-    priority: 'high', alarmClass: 'alarm', consequence: 'Ignition to the hot branch within the projected horizon.',
-    likelyCause: 'Cooling capacity falling toward the ignition point.', operatorAction: 'Lower the cooling-water temperature or reduce feed per procedure before the projected time.' },
+  foldInView('TI-101', 'R-100', 1200, { consequence: 'Ignition to the hot branch within the projected horizon.',
+    likelyCause: 'Cooling capacity falling toward the ignition point.', operatorAction: 'Lower the cooling-water temperature or reduce feed per procedure before the projected time.' }),
   { tag: 'AI-201', name: 'D-200 VFA high', measure: 'value', comparison: 'above', threshold: 60, deadband: 3, onDelay: 60, offDelay: 60,
     priority: 'high', alarmClass: 'alarm', consequence: 'Digester souring: methane production collapses.',
     likelyCause: 'Methanogens washing out at short retention time.', operatorAction: 'Reduce the feed flow per procedure and check the alkalinity dosing.' },
@@ -58,9 +61,8 @@ export const DEMO_RULES: readonly DemoRule[] = [
     priority: 'urgent', alarmClass: 'alarm', consequence: 'Voltage collapse at the load bus.',
     likelyCause: 'Demand beyond the nose of the P–V curve.', operatorAction: 'Shed load or raise reactive support per the grid operator\'s instructions.' },
   slowingDown('EI-301', 'B-300', 'The load-bus voltage', 'Check the demand trend and reactive reserve; warn the grid operator per procedure.'),
-  { tag: 'EI-301', name: 'B-300 fold in view', measure: 'fold_horizon', comparison: 'below', threshold: 900, deadband: 300, onDelay: foldDelays.onDelay, offDelay: foldDelays.offDelay,
-    priority: 'high', alarmClass: 'alarm', consequence: 'Voltage collapse within the projected horizon.',
-    likelyCause: 'Demand rising toward the maximum transferable power.', operatorAction: 'Arrange load reduction or reactive support with the grid operator before the projected time.' },
+  foldInView('EI-301', 'B-300', 900, { consequence: 'Voltage collapse within the projected horizon.',
+    likelyCause: 'Demand rising toward the maximum transferable power.', operatorAction: 'Arrange load reduction or reactive support with the grid operator before the projected time.' }),
   { tag: 'TI-401', name: 'T-400 feed temperature high', measure: 'value', comparison: 'above', threshold: 55, deadband: 1, onDelay: 60, offDelay: 60,
     priority: 'medium', alarmClass: 'alarm', consequence: 'Off-specification feed to downstream units.',
     likelyCause: 'Heater control fault.', operatorAction: 'Check the heater and its controller; switch to manual per procedure.' },
