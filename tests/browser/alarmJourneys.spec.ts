@@ -7,7 +7,7 @@ import { createTestTag, ingestAll, mailboxMessages, tick, waitForDemoSite } from
 import { setupBuiltServer } from '../support/server'
 import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
 import { call, signInAs } from '../support/session'
-import { seriousA11yViolations } from '../support/axe'
+import { expectAccessible } from '../support/axe'
 
 // What an operator sees of issue 12's alarm fixes: a re-raised alarm reads as new, an alarm from
 // old history is recorded without its own mail, the e-mail link opens the alarm's trail, a
@@ -26,12 +26,6 @@ const ruleOf = (tagId: number, code: string) => ({
   operatorAction: `Switch the ${code} heater off.`, timeToRespondS: 600,
 })
 const alarmIdOf = async (code: string) => Number((await sql`select a.id from alarms a join tags t on t.id = a.tag_id where t.code = ${code}`)[0]!.id)
-
-async function expectAccessible(name: string) {
-  const findings = await seriousA11yViolations(page)
-  if (findings.length) console.error(`[axe] ${name}:`, JSON.stringify(findings, null, 1))
-  expect(findings, name).toEqual([])
-}
 
 beforeAll(async () => {
   await waitForDemoSite(sql)
@@ -73,7 +67,7 @@ describe('alarm journeys (issue 12)', () => {
     expect(text).toMatch(/activation 2 · first .*/)
     expect(text).toContain(wall(firstMs))
     await screenshot(page, 'journey-reraise-list')
-    await expectAccessible('alarm list with a re-raised alarm')
+    await expectAccessible(page, 'alarm list with a re-raised alarm')
   })
 
   it('opens the alarm from its e-mail link: every event with who, when and comment, and acknowledges it there (item 4)', async () => {
@@ -100,7 +94,7 @@ describe('alarm journeys (issue 12)', () => {
     expect(await firstTime.textContent()).toMatch(/Europe\/London$/)
     expect(await firstTime.getAttribute('title')).toMatch(/\d{2}:\d{2}:\d{2} UTC$/)
     await screenshot(page, 'journey-alarm-trail')
-    await expectAccessible('alarm page')
+    await expectAccessible(page, 'alarm page')
     // Older mails linked to /alarms?id=N: they land on the same page.
     await page.goto(url(`/alarms?id=${id}`))
     await page.waitForURL(new RegExp(`/alarms/${id}$`))
@@ -134,7 +128,7 @@ describe('alarm journeys (issue 12)', () => {
     // The other test tag's acknowledged, still-active alarm puts its operator action on the tile.
     await expect(page.locator('[data-tile]', { hasText: LIVE }).getByTestId('tile-action').textContent()).resolves.toBe(`Switch the ${LIVE} heater off.`)
     await screenshot(page, 'journey-tile-shelved')
-    await expectAccessible('overview with a shelved alarm')
+    await expectAccessible(page, 'overview with a shelved alarm')
   })
 
   it('fills 1600 px and 2560 px screens with tiles, with a wall-display density (item 6), and takes arrow keys at once (item 7)', async () => {

@@ -6,7 +6,7 @@ import { launchChromium, screenshot, signInThroughForm } from '../support/browse
 import { call, signInAs } from '../support/session'
 import { createTestGateway, ingest } from '../support/gateway'
 import { ingestOu } from '../support/simulatedSamples'
-import { seriousA11yViolations } from '../support/axe'
+import { expectAccessible } from '../support/axe'
 
 await setupBuiltServer({ BRINKLINE_TEST_ROUTES: '1' })
 
@@ -30,12 +30,6 @@ async function until(check: () => Promise<boolean>, what: string, timeoutMs = 20
   for (const end = Date.now() + timeoutMs; Date.now() < end; await new Promise(r => setTimeout(r, 250)))
     if (await check()) return
   throw new Error(`timed out waiting for ${what}`)
-}
-
-async function expectAccessible(name: string) {
-  const findings = await seriousA11yViolations(page)
-  if (findings.length) console.error(`[axe] ${name}:`, JSON.stringify(findings, null, 1))
-  expect(findings, name).toEqual([])
 }
 
 beforeAll(async () => {
@@ -80,7 +74,7 @@ describe('an operator on shift', () => {
     }
     await expect(page.getByRole('note').first().textContent()).resolves.toMatch(/Advisory only/)
     await screenshot(page, 'console-overview')
-    await expectAccessible('overview')
+    await expectAccessible(page, 'overview')
 
     const tiles = page.locator('[data-tile]')
     await tiles.first().focus()
@@ -108,7 +102,7 @@ describe('an operator on shift', () => {
     // The hour in 1,000 buckets of 3.6 s, nearly all holding samples (the data cover the hour).
     expect(lines.length).toBeGreaterThan(900)
     await screenshot(page, 'console-tag-detail')
-    await expectAccessible('tag detail')
+    await expectAccessible(page, 'tag detail')
     // Legends (issue 12 item 7) in the page's font, "—" with nothing under the cursor, not uPlot's "--".
     const legend = page.locator('.u-legend').first()
     expect(await legend.evaluate(el => getComputedStyle(el).fontFamily)).toMatch(/Roboto Mono/)
@@ -145,7 +139,7 @@ describe('an operator on shift', () => {
     expect(await page.getByTestId('share-spread').allTextContents()).toEqual([expect.stringMatching(/^\d+–\d+ %$/), expect.stringMatching(/^\d+–\d+ %$/)])
     expect(await page.getByTestId('share-steadiness').textContent()).toMatch(/^(Steady: every share stayed within|Not stable: a share moved by up to) \d+ points? over the last/)
     await screenshot(page, 'console-unit-detail')
-    await expectAccessible('unit detail')
+    await expectAccessible(page, 'unit detail')
   })
 })
 
@@ -161,7 +155,7 @@ describe('alarms and the shift log', () => {
     await expect(page.getByTestId('alarm-row').filter({ hasText: 'B-300 bus voltage low' }).textContent()).resolves.toContain('value below 0.750 pu, now 0.700 pu')
     await expect(page.getByRole('note').first().textContent()).resolves.toMatch(/Advisory only/)
     await screenshot(page, 'console-alarms-active')
-    await expectAccessible('alarms')
+    await expectAccessible(page, 'alarms')
 
     await row.getByRole('checkbox').check()
     await page.getByLabel('Comment').fill('Cooling at full, feed stopped per procedure')
@@ -179,7 +173,7 @@ describe('alarms and the shift log', () => {
     await dialog.getByLabel('Reason').fill('Voltage transducer being recalibrated by instrument tech')
     await dialog.getByLabel('For').selectOption({ label: '30 min' })
     await screenshot(page, 'console-alarms-shelve')
-    await expectAccessible('shelve dialog')
+    await expectAccessible(page, 'shelve dialog')
     await dialog.getByRole('button', { name: 'Shelve' }).click()
     await expect.poll(async () => (await activeAlarm('B-300 bus voltage low'))?.state).toBe('shelved')
     await expect.poll(() => row.textContent()).toMatch(/until .*: Voltage transducer being recalibrated/)
@@ -219,7 +213,7 @@ describe('alarms and the shift log', () => {
     await from.press('Enter')
     await page.getByLabel('Priority').selectOption('low')
     await screenshot(page, 'console-alarms-history')
-    await expectAccessible('alarm history')
+    await expectAccessible(page, 'alarm history')
     await page.getByRole('button', { name: 'Clear filters' }).click()
     await page.getByRole('radio', { name: 'Active' }).click()
   })
@@ -236,6 +230,6 @@ describe('alarms and the shift log', () => {
     await page.getByRole('radio', { name: /Handover/ }).click()
     await expect.poll(() => note.count()).toBe(1)
     await screenshot(page, 'console-shift-log')
-    await expectAccessible('shift log')
+    await expectAccessible(page, 'shift log')
   })
 })

@@ -1,11 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { BrowserContext } from 'playwright-core'
+import { describe, expect, it } from 'vitest'
 import { url } from '@nuxt/test-utils/e2e'
-import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
+import { chromiumOnDemoSite, screenshot, signInThroughForm } from '../support/browser'
 import { testSql } from '../support/db'
 import { busToCollapse, FIXED_START_MS, tagWithDemoRules } from '../support/demoPlant'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
-import { createTestTag, ingestAll, runServerTask, waitForDemoSite } from '../support/pipeline'
+import { createTestTag, ingestAll, runServerTask } from '../support/pipeline'
 import { typedPlantTime } from '../support/plantTime'
 import { setupBuiltServer } from '../support/server'
 import { call, signInAs } from '../support/session'
@@ -14,16 +13,7 @@ import { call, signInAs } from '../support/session'
 // marked event, reloads the page while the job runs, and reads the saved report.
 await setupBuiltServer({ ...MANUAL_TICKS_ENV, BRINKLINE_REPLAY_WORKER: '1' })
 const sql = testSql()
-let context: BrowserContext
-beforeAll(async () => {
-  await waitForDemoSite(sql)
-  context = await launchChromium()
-})
-afterAll(async () => {
-  await context?.close()
-  await sql.end()
-})
-
+const browser = chromiumOnDemoSite(sql)
 
 describe('engineer replays stored history on the workbench', () => {
   it('queues a replay, follows its progress through a reload and reads the report with the advisory caution', async () => {
@@ -34,7 +24,7 @@ describe('engineer replays stored history on the workbench', () => {
     const rows = samples.filter(s => s.tag === 'EI-301' && s.time <= tipMs!).map(s => ({ tag: 'EI-371', time: new Date(s.time + shift).toISOString(), value: s.value }))
     await ingestAll(rows)
 
-    const page = await context.newPage()
+    const page = await browser.newPage()
     await signInThroughForm(page, 'engineer')
     await page.goto(url('/workbench'))
     await page.getByRole('link', { name: 'Replays' }).click()
@@ -98,7 +88,7 @@ describe('engineer replays stored history on the workbench', () => {
     const shift = FIXED_START_MS - tipMs!
     const lines = samples.filter(s => s.tag === 'EI-301' && s.time <= tipMs!).map(s => `${new Date(s.time + shift).toISOString()},EI-372,${s.value}`)
     lines.splice(3, 0, 'not a time,EI-372,1')
-    const page = await context.newPage()
+    const page = await browser.newPage()
     await signInThroughForm(page, 'engineer')
     await page.goto(url('/workbench/replays'))
     const form = page.getByRole('form', { name: 'New replay of a file' })
@@ -140,7 +130,7 @@ describe('engineer replays stored history on the workbench', () => {
       await ingestAll(rows.slice(i, i + chunk))
       await runServerTask('indicators:refresh')
     }
-    const page = await context.newPage()
+    const page = await browser.newPage()
     await signInThroughForm(page, 'engineer')
     await page.goto(url('/workbench/replays'))
     const form = page.getByRole('form', { name: 'New replay', exact: true })

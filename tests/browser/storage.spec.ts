@@ -1,21 +1,15 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { BrowserContext } from 'playwright-core'
+import { describe, expect, it } from 'vitest'
 import { seriousA11yViolations } from '../support/axe'
-import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
+import { chromiumOnDemoSite, screenshot, signInThroughForm } from '../support/browser'
 import { testSql } from '../support/db'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
-import { ingestAll, runServerTask, waitForDemoSite } from '../support/pipeline'
+import { ingestAll, runServerTask } from '../support/pipeline'
 import { setupBuiltServer } from '../support/server'
 
 // Issue 13 item 9: the admin reads the database's size and growth and sets a site's raw window.
 await setupBuiltServer(MANUAL_TICKS_ENV)
 const sql = testSql()
-let context: BrowserContext
-beforeAll(async () => {
-  context = await launchChromium()
-  await waitForDemoSite(sql)
-})
-afterAll(async () => { await context?.close(); await sql.end() })
+const browser = chromiumOnDemoSite(sql)
 
 const MIB = 1024 * 1024
 
@@ -33,7 +27,7 @@ describe('admin storage page', () => {
     }))
     for (const s of hourly) await sql`insert into storage_snapshots (taken_at, database_bytes, sample_rows, archive_rows) values (${s.at}, ${s.bytes}, 0, 0)`
 
-    const page = await context.newPage()
+    const page = await browser.newPage()
     await signInThroughForm(page, 'admin')
     await page.getByRole('link', { name: 'Storage' }).click()
     await page.getByRole('heading', { name: /database storage/i }).waitFor()

@@ -2,7 +2,7 @@ import { mkdtempSync, readFileSync, truncateSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { BrowserContext } from 'playwright-core'
+import type { BrowserContext, Page } from 'playwright-core'
 import { url } from '@nuxt/test-utils/e2e'
 import { setupBuiltServer } from '../support/server'
 import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
@@ -40,6 +40,18 @@ async function importThroughPage(name: string, lines: string[]) {
   await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
   await page.getByRole('button', { name: 'Import', exact: true }).click()
   return page
+}
+
+/**
+ * The result's rejections table: `groups` rows, one per reason; the first names `reason`, counts
+ * its `lines` and shows three of them as examples.
+ */
+async function expectFirstRejectionGroup(page: Page, first: { groups: number, reason: string, lines: number }) {
+  const rows = page.getByRole('table', { name: 'Rejections by reason' }).locator('tbody tr')
+  expect(await rows.count()).toBe(first.groups)
+  expect(await rows.first().textContent()).toContain(first.reason)
+  expect((await rows.first().locator('td').nth(1).textContent())?.trim()).toBe(String(first.lines))
+  expect(await rows.first().getByText(/^line \d+/).count()).toBe(3)
 }
 
 describe('engineer uploads historian CSV', () => {
@@ -112,12 +124,8 @@ describe('engineer uploads historian CSV', () => {
     const page = await importThroughPage('wrong-site.csv', ['time,tag,value', ...lines, '2025-08-04 25:00:00,TI-401,1'])
     const outcome = page.getByTestId('upload-outcome')
     await expect.poll(() => outcome.textContent()).toBe('Nothing was stored: every one of the 41 rows was rejected.')
-    const rows = page.getByRole('table', { name: 'Rejections by reason' }).locator('tbody tr')
-    expect(await rows.count()).toBe(2)
-    expect(await rows.first().textContent()).toContain('unknown tag code "XX-901" at this site')
-    expect((await rows.first().locator('td').nth(1).textContent())?.trim()).toBe('40')
     // Three examples per reason, not forty rows.
-    expect(await rows.first().getByText(/^line \d+/).count()).toBe(3)
+    await expectFirstRejectionGroup(page, { groups: 2, reason: 'unknown tag code "XX-901" at this site', lines: 40 })
     expect(await outcome.isVisible()).toBe(true)
     await screenshot(page, 'engineer-upload-all-rejected')
 
@@ -155,11 +163,7 @@ describe('engineer uploads historian CSV', () => {
     const page = await importThroughPage('tank-history.csv', ['time,tag,value', ...good, ...beyond])
     const outcome = page.getByTestId('upload-outcome')
     await expect.poll(() => outcome.textContent()).toBe('20 samples stored, 400 rejected.')
-    const rows = page.getByRole('table', { name: 'Rejections by reason' }).locator('tbody tr')
-    expect(await rows.count()).toBe(1)
-    expect(await rows.first().textContent()).toContain('… is beyond the physical bound of this tag')
-    expect((await rows.first().locator('td').nth(1).textContent())?.trim()).toBe('400')
-    expect(await rows.first().getByText(/^line \d+/).count()).toBe(3)
+    await expectFirstRejectionGroup(page, { groups: 1, reason: '… is beyond the physical bound of this tag', lines: 400 })
     // The result scrolls into view; the page stays short (it was 11,700 px with a row per line).
     await expect.poll(() => outcome.evaluate(el =>
       el.getBoundingClientRect().top >= 0 && el.getBoundingClientRect().bottom <= innerHeight)).toBe(true)

@@ -1,12 +1,11 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { BrowserContext, Page } from 'playwright-core'
+import { describe, expect, it } from 'vitest'
 import { url } from '@nuxt/test-utils/e2e'
-import { seriousA11yViolations } from '../support/axe'
-import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
+import { expectAccessible } from '../support/axe'
+import { chromiumOnDemoSite, screenshot, signInThroughForm } from '../support/browser'
 import { testSql } from '../support/db'
 import { busToCollapse, FIXED_START_MS } from '../support/demoPlant'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
-import { ingestAll, waitForDemoSite } from '../support/pipeline'
+import { ingestAll } from '../support/pipeline'
 import { typedPlantTime } from '../support/plantTime'
 import { setupBuiltServer } from '../support/server'
 
@@ -15,28 +14,14 @@ import { setupBuiltServer } from '../support/server'
 // ISA-18.2 rationale, and a replay of the tag's history with the collapse marked as the event.
 await setupBuiltServer({ ...MANUAL_TICKS_ENV, BRINKLINE_REPLAY_WORKER: '1' })
 const sql = testSql()
-let context: BrowserContext
-beforeAll(async () => {
-  await waitForDemoSite(sql)
-  context = await launchChromium()
-})
-afterAll(async () => {
-  await context?.close()
-  await sql.end()
-})
+const browser = chromiumOnDemoSite(sql)
 
 const CODE = 'EI-381'
 const DESCRIPTION = 'Load-bus voltage, second transmitter'
 
-async function expectAccessible(page: Page, name: string) {
-  const findings = await seriousA11yViolations(page)
-  if (findings.length) console.error(`[axe] ${name}:`, JSON.stringify(findings, null, 1))
-  expect(findings, name).toEqual([])
-}
-
 describe('engineer tunes a new tag on the workbench', () => {
   it('creates a tag, previews and saves its settings, writes a rule with rationale and replays its history', async () => {
-    const page = await context.newPage()
+    const page = await browser.newPage()
     await signInThroughForm(page, 'engineer')
     await page.goto(url('/workbench'))
     await page.getByRole('heading', { name: 'Workbench · plant model' }).waitFor()

@@ -35,6 +35,26 @@ function writeChunked(req: ReturnType<typeof request>, text: string, chunkBytes 
   for (let i = 0; i < text.length; i += chunkBytes) req.write(text.slice(i, i + chunkBytes))
 }
 
+/** The answer to a body declared `bytes` long of which not one byte is sent. */
+async function answerToDeclared(path: string, headers: Record<string, string>, bytes: number): Promise<Answer> {
+  const { req, answered } = openRequest(path, { ...headers, 'content-length': String(bytes) })
+  req.flushHeaders()
+  try {
+    return await answered
+  }
+  finally {
+    req.destroy()
+  }
+}
+
+/** The answer to `text` sent whole as a chunked body. */
+function answerToChunked(path: string, headers: Record<string, string>, text: string, chunkBytes?: number): Promise<Answer> {
+  const { req, answered } = openRequest(path, headers)
+  writeChunked(req, text, chunkBytes)
+  req.end()
+  return answered
+}
+
 const T0 = Date.UTC(2026, 1, 2, 6, 0, 0)
 const samplesAt = (fromMs: number, n: number) => Array.from({ length: n }, (_, i) => ({ tag: 'TI-401', time: fromMs + i * 1000, value: 20 + (i % 100) / 10 }))
 const storedBetween = async (fromMs: number, toMs: number) =>
@@ -43,10 +63,7 @@ const storedBetween = async (fromMs: number, toMs: number) =>
 
 describe('request body limits (issue 13 item 6)', () => {
   it('refuses a 100 MB declared sign-in body with 413 naming the limit, without waiting for a byte of it', async () => {
-    const { req, answered } = openRequest('/api/public/sign-in', { 'content-type': 'application/json', 'content-length': String(100 * 1024 * 1024) })
-    req.flushHeaders()
-    const res = await answered
-    req.destroy()
+    const res = await answerToDeclared('/api/public/sign-in', { 'content-type': 'application/json' }, 100 * 1024 * 1024)
     expect(res.status).toBe(413)
     expect(res.body.message).toBe('body: its declared 104857600 bytes exceed the limit of 64 KiB (65536 bytes) for POST /api/public/sign-in')
   })
@@ -57,10 +74,7 @@ describe('request body limits (issue 13 item 6)', () => {
     // A valid batch, then an unknown field that carries it past the limit: read whole, it would be stored.
     const prefix = JSON.stringify({ samples }).slice(0, -1)
     const body = `${prefix},"padding":"${'x'.repeat(MAX_INGEST_BYTES + 16 * 1024 - prefix.length)}"}`
-    const { req, answered } = openRequest('/api/ingest', { 'content-type': 'application/json', 'authorization': `Bearer ${gateway.key}` })
-    writeChunked(req, body)
-    req.end()
-    const res = await answered
+    const res = await answerToChunked('/api/ingest', { 'content-type': 'application/json', 'authorization': `Bearer ${gateway.key}` }, body)
     expect(res.status).toBe(413)
     expect(res.body.message).toBe('body: it grew past the limit of 4 MiB (4194304 bytes) for POST /api/ingest')
     expect(await storedBetween(T0, T0 + 99_000)).toBe(0)
@@ -71,10 +85,8 @@ describe('request body limits (issue 13 item 6)', () => {
   it('takes a chunked ingest within the limit whole', async () => {
     const gateway = await createTestGateway('chunked-gateway')
     const from = T0 + 3_600_000
-    const { req, answered } = openRequest('/api/ingest', { 'content-type': 'application/json', 'authorization': `Bearer ${gateway.key}` })
-    writeChunked(req, JSON.stringify({ samples: samplesAt(from, 3000) }), 4096)
-    req.end()
-    const res = await answered
+    const headers = { 'content-type': 'application/json', 'authorization': `Bearer ${gateway.key}` }
+    const res = await answerToChunked('/api/ingest', headers, JSON.stringify({ samples: samplesAt(from, 3000) }), 4096)
     expect(res.status).toBe(200)
     expect(res.body.accepted, JSON.stringify(res.body).slice(0, 600)).toBe(3000)
     expect(await storedBetween(from, from + 2_999_000)).toBe(3000)
@@ -98,10 +110,7 @@ describe('request body limits (issue 13 item 6)', () => {
 
     it('previews a chunked body of exactly the limit', async () => {
       const cookie = await signInAs('engineer')
-      const { req, answered } = openRequest('/api/uploads/preview?siteId=1', { 'content-type': 'text/csv', cookie })
-      writeChunked(req, csvOf(PREVIEW_MAX_BYTES))
-      req.end()
-      const res = await answered
+      const res = await answerToChunked('/api/uploads/preview?siteId=1', { 'content-type': 'text/csv', cookie }, csvOf(PREVIEW_MAX_BYTES))
       expect(res.status).toBe(200)
       expect(res.body.header).toEqual(['Timestamp', 'Tag', 'Value'])
     })
@@ -109,12 +118,7 @@ describe('request body limits (issue 13 item 6)', () => {
 
   it('refuses an import whose declared length passes its limit before reading it', async () => {
     const cookie = await signInAs('engineer')
-    const { req, answered } = openRequest('/api/uploads/import?siteId=1&format=long', {
-      'content-type': 'text/csv', cookie, 'content-length': String(MAX_UPLOAD_BYTES + 1),
-    })
-    req.flushHeaders()
-    const res = await answered
-    req.destroy()
+    const res = await answerToDeclared('/api/uploads/import?siteId=1&format=long', { 'content-type': 'text/csv', cookie }, MAX_UPLOAD_BYTES + 1)
     expect(res.status).toBe(413)
     expect(res.body.message).toContain('exceed the limit of 1 GiB (1073741824 bytes) for POST /api/uploads/import')
   })

@@ -2,8 +2,11 @@ import { mkdtempSync, mkdirSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { chromium, type BrowserContext, type Page } from 'playwright-core'
+import type postgres from 'postgres'
+import { afterAll, beforeAll } from 'vitest'
 import { url } from '@nuxt/test-utils/e2e'
 import type { Role } from '../../shared/utils/roles'
+import { waitForDemoSite } from './pipeline'
 import { DEMO_PASSWORD, demoEmail } from './session'
 
 const SCREENSHOTS = join(process.env.TEST_OUTPUT_DIR ?? 'test-output', 'screenshots')
@@ -24,6 +27,23 @@ export async function launchChromium(): Promise<BrowserContext> {
   context.setDefaultTimeout(ACTION_TIMEOUT_MS)
   context.setDefaultNavigationTimeout(ACTION_TIMEOUT_MS)
   return context
+}
+
+/**
+ * The file's Chromium for pages of the seeded demo site: launched once the demo site is there and
+ * closed after the file, together with the file's database client `sql`. Call at the top of a spec.
+ */
+export function chromiumOnDemoSite(sql: postgres.Sql): { newPage: () => Promise<Page> } {
+  let context: BrowserContext | undefined
+  beforeAll(async () => {
+    await waitForDemoSite(sql)
+    context = await launchChromium()
+  })
+  afterAll(async () => {
+    await context?.close()
+    await sql.end()
+  })
+  return { newPage: () => context!.newPage() }
 }
 
 export async function signInThroughForm(page: Page, role: Role): Promise<void> {
