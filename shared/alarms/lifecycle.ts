@@ -5,31 +5,12 @@
 // from any state; while in them the condition is still tracked, and on exit evaluation resumes
 // from normal: a condition that still holds is annunciated again as unacknowledged.
 // Pure: the database layer stores what this returns and writes one alarm event per transition.
-import { ALARM_STATE_LABELS, type AlarmState } from './vocabulary'
+import { ALARM_STATE_LABELS, type AlarmState, type LifecycleEvent } from './vocabulary'
 
 export interface AlarmPoint {
   state: AlarmState
   /** Whether the alarm condition holds now (independent of acknowledgement and shelving). */
   conditionActive: boolean
-}
-
-export const LIFECYCLE_EVENTS = [
-  'activate', 'return', 'acknowledge', 'shelve', 'unshelve', 'suppress', 'unsuppress',
-  'remove_from_service', 'return_to_service',
-] as const
-export type LifecycleEvent = typeof LIFECYCLE_EVENTS[number]
-
-/** How each event reads in an alarm's trail ("activated" is "activated again" after the first). */
-export const LIFECYCLE_EVENT_LABELS: Record<LifecycleEvent, string> = {
-  activate: 'activated',
-  return: 'returned to normal',
-  acknowledge: 'acknowledged',
-  shelve: 'shelved',
-  unshelve: 'unshelved',
-  suppress: 'suppressed by design',
-  unsuppress: 'suppression ended',
-  remove_from_service: 'removed from service',
-  return_to_service: 'returned to service',
 }
 
 export type Transition =

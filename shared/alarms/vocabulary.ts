@@ -31,6 +31,29 @@ export const ALARM_STATE_LABELS: Record<AlarmState, string> = {
   out_of_service: 'out of service',
 }
 
+/**
+ * The events that move an alarm between those states (shared/alarms/lifecycle.ts): not a second
+ * list of states, though ISA-18.2 names some states after the event that enters them (shelved).
+ */
+export const LIFECYCLE_EVENTS = [
+  'activate', 'return', 'acknowledge', 'shelve', 'unshelve', 'suppress', 'unsuppress',
+  'remove_from_service', 'return_to_service',
+] as const
+export type LifecycleEvent = typeof LIFECYCLE_EVENTS[number]
+
+/** How each event reads in an alarm's trail ("activated" is "activated again" after the first). */
+export const LIFECYCLE_EVENT_LABELS: Record<LifecycleEvent, string> = {
+  activate: 'activated',
+  return: 'returned to normal',
+  acknowledge: 'acknowledged',
+  shelve: 'shelved',
+  unshelve: 'unshelved',
+  suppress: 'suppressed by design',
+  unsuppress: 'suppression ended',
+  remove_from_service: 'removed from service',
+  return_to_service: 'returned to service',
+}
+
 /** How a rule's alarm point is kept in or out of annunciation by configuration. */
 export const RULE_MODES = ['in_service', 'suppressed', 'out_of_service'] as const
 export type RuleMode = typeof RULE_MODES[number]

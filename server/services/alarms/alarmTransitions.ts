@@ -1,6 +1,6 @@
 import { and, eq, ne } from 'drizzle-orm'
-import { applyLifecycleEvent, type LifecycleEvent } from '#shared/alarms/lifecycle'
-import type { AlarmState, RuleMode } from '#shared/alarms/vocabulary'
+import { applyLifecycleEvent } from '#shared/alarms/lifecycle'
+import type { AlarmState, LifecycleEvent, RuleMode } from '#shared/alarms/vocabulary'
 import { DEFAULT_NOTIFY_MAX_AGE_MINUTES, isFromOldHistory } from '#shared/alarms/historyNotice'
 import { historyNoticeComment } from '#shared/notifications/historySummaryMail'
 import { alarmEvents, alarms } from '../../db/schema'

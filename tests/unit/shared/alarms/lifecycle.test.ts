@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { applyLifecycleEvent, type AlarmPoint, type LifecycleEvent } from '../../../../shared/alarms/lifecycle'
-import { ALARM_STATES, type AlarmState } from '../../../../shared/alarms/vocabulary'
+import { applyLifecycleEvent, type AlarmPoint } from '../../../../shared/alarms/lifecycle'
+import { ALARM_STATES, type AlarmState, type LifecycleEvent } from '../../../../shared/alarms/vocabulary'
 
 const SOURCE = 'ANSI/ISA-18.2-2016 state-transition diagram (per docs/science.md §S7.2)'
 const point = (state: AlarmState, conditionActive: boolean): AlarmPoint => ({ state, conditionActive })
