@@ -28,8 +28,8 @@ const CSV = [
   '2025-08-04 14:00:05,XX-900,1.0,good',
 ].join('\n')
 
-/** As an engineer on the upload page: a file of these lines, its preview, then Import. */
-async function importThroughPage(name: string, lines: string[]) {
+/** As an engineer on the upload page: a file of these lines and its preview. */
+async function previewThroughPage(name: string, lines: string[]) {
   const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), name)
   writeFileSync(file, lines.join('\n'))
   await context.clearCookies()
@@ -38,6 +38,12 @@ async function importThroughPage(name: string, lines: string[]) {
   await page.goto(url('/upload'))
   await page.getByLabel('Historian CSV file').setInputFiles(file)
   await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
+  return page
+}
+
+/** The same, then Import. */
+async function importThroughPage(name: string, lines: string[]) {
+  const page = await previewThroughPage(name, lines)
   await page.getByRole('button', { name: 'Import', exact: true }).click()
   return page
 }
@@ -175,14 +181,8 @@ describe('engineer uploads historian CSV', () => {
   })
 
   it('maps a wide file: tag columns ticked, a column that is no tag of the site left out', async () => {
-    const file = join(mkdtempSync(join(tmpdir(), 'brinkline-upload-')), 'fenwick-wide.csv')
-    writeFileSync(file, 'time;EI-301;JI-302;Ambient\n2025-08-05T09:00:00Z;1.01;80.5;21\n2025-08-05T09:00:02Z;1.02;;21\n')
-    await context.clearCookies()
-    const page = await context.newPage()
-    await signInThroughForm(page, 'engineer')
-    await page.goto(url('/upload'))
-    await page.getByLabel('Historian CSV file').setInputFiles(file)
-    await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
+    const page = await previewThroughPage('fenwick-wide.csv',
+      ['time;EI-301;JI-302;Ambient', '2025-08-05T09:00:00Z;1.01;80.5;21', '2025-08-05T09:00:02Z;1.02;;21', ''])
     expect(await page.getByLabel('Layout').inputValue()).toBe('wide')
     expect(await page.getByRole('checkbox', { name: 'EI-301' }).isChecked()).toBe(true)
     expect(await page.getByRole('checkbox', { name: /Ambient/ }).isDisabled()).toBe(true)
