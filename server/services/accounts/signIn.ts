@@ -5,13 +5,12 @@ import { normalisePassword } from '#shared/schemas/account'
 import { users } from '../../db/schema'
 import type { Db } from '../../utils/db'
 import { writeAudit } from '../../utils/audit'
+import type { PasswordHashing } from './passwordHashing'
 import type { SignInLimiter } from './signInLimits'
 
 /** What a sign-in needs from outside: the limiter of this process and the server's password hashing. */
-export interface SignInTools {
+export interface SignInTools extends PasswordHashing {
   limiter: SignInLimiter
-  hashPassword: (plain: string) => Promise<string>
-  verifyPassword: (hash: string, plain: string) => Promise<boolean>
 }
 
 export interface SignInAttempt {
@@ -60,7 +59,7 @@ let unknownAccountHash: Promise<string> | undefined
  * costs the same scrypt work as a wrong password and answer times do not tell which exist
  * (OWASP Authentication Cheat Sheet, "authentication responses").
  */
-function hashForUnknownAccount(hashPassword: SignInTools['hashPassword']): Promise<string> {
+function hashForUnknownAccount(hashPassword: PasswordHashing['hashPassword']): Promise<string> {
   unknownAccountHash ??= hashPassword(randomBytes(24).toString('base64url'))
   return unknownAccountHash
 }
