@@ -13,6 +13,8 @@ import { number } from '../notifications/format'
  */
 export const WATCH_P = 0.01
 
+const SETTLING_REASON = 'settling after a step: windows restarted'
+
 export interface StatusInput {
   now: number
   latestTime: number | null
@@ -26,16 +28,20 @@ export function deriveTagStatus(input: StatusInput): { status: TagStatus, reason
   if (silentFor > NO_DATA_PERIODS * input.samplePeriodS)
     return { status: 'no data', reason: input.latestTime === null ? 'no samples yet' : `no sample for ${formatDuration(silentFor)} (over ${NO_DATA_PERIODS} sample periods)` }
   const p = input.latest
-  // After a trip, reset or setpoint change the windows restart; that is not a data fault.
-  if (p?.quality === SETTLING) return { status: 'watch', reason: 'settling after a step: windows restarted' }
-  // The detrender's warm-up is not a data fault either: the tag is simply not judged yet.
-  if (p?.quality?.startsWith(WARMING_UP)) return { status: 'steady', reason: `analysis pending (${p.quality})` }
-  if (p?.quality) return { status: 'bad quality', reason: p.quality }
+  // After a trip, reset or setpoint change the windows restart, and a new tag's detrender warms
+  // up: neither is a data fault, and neither may hide an alarm. A trip is when limit alarms stand,
+  // so "watch, settling" above an unacknowledged alarm would understate the tag at its worst moment.
+  const settling = p?.quality === SETTLING
+  const warming = p?.quality?.startsWith(WARMING_UP) ?? false
+  if (p?.quality && !settling && !warming) return { status: 'bad quality', reason: p.quality }
   const annunciated = input.openAlarms.filter(a => a.state === 'unacknowledged' || a.state === 'acknowledged')
+  const restarted = settling ? `; ${SETTLING_REASON}` : ''
   const alarm = annunciated.find(a => a.alarmClass === 'alarm')
-  if (alarm) return { status: 'alarm', reason: alarm.name }
+  if (alarm) return { status: 'alarm', reason: alarm.name + restarted }
   const alert = annunciated.find(a => a.alarmClass === 'alert')
-  if (alert) return { status: 'warning', reason: alert.name }
+  if (alert) return { status: 'warning', reason: alert.name + restarted }
+  if (settling) return { status: 'watch', reason: SETTLING_REASON }
+  if (warming) return { status: 'steady', reason: `analysis pending (${p!.quality})` }
   if (p?.evidence === 'slowing down' && p.fold.kind === 'projected')
     return { status: 'warning', reason: `slowing down; fold projected in ${formatDuration(p.fold.seconds)}` }
   if (p?.evidence === 'slowing down') return { status: 'watch', reason: `slowing down (autocorrelation trend p ${number(p.pAr1)})` }

@@ -37,6 +37,23 @@ describe('tile status of a tag that is not judged yet', () => {
       .toEqual({ status: 'steady', reason: 'trend test pending (the trend window is still filling)' })
   })
 
+  it('an annunciated alarm or alert outranks settling and warming up, and the restart is still said', () => {
+    const withOpen = (latest: typeof warming, alarmClass: 'alarm' | 'alert') => deriveTagStatus({
+      now: 40, latestTime: 39, samplePeriodS: 1, latest, openAlarms: [{ alarmClass, state: 'unacknowledged', name: 'TI-1 high' }],
+    })
+    expect(withOpen({ ...warming, quality: SETTLING }, 'alarm'))
+      .toEqual({ status: 'alarm', reason: 'TI-1 high; settling after a step: windows restarted' })
+    expect(withOpen({ ...warming, quality: SETTLING }, 'alert').status).toBe('warning')
+    expect(withOpen(warming, 'alarm')).toEqual({ status: 'alarm', reason: 'TI-1 high' })
+  })
+
+  it('a real data fault stays bad quality, above an open alarm too (its indicators are not trusted)', () => {
+    expect(deriveTagStatus({
+      now: 40, latestTime: 39, samplePeriodS: 1, latest: { ...warming, quality: 'stuck: all 40 values equal 1' },
+      openAlarms: [{ alarmClass: 'alarm', state: 'unacknowledged', name: 'TI-1 high' }],
+    }).status).toBe('bad quality')
+  })
+
   it('a real data fault stays bad quality', () => {
     expect(status({ ...warming, quality: 'stuck: all 40 values equal 1' }).status).toBe('bad quality')
   })
