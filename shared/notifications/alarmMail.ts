@@ -3,6 +3,7 @@
 // operator action, a link, and the advisory caution.
 import { ADVISORY_CAUTION, priorityRank, type AlarmClass, type Priority } from '../alarms/vocabulary'
 import { formatDuration } from '../utils/duration'
+import { pValueText } from '../utils/numberText'
 import { number, plantTime } from './format'
 
 export interface AlarmMailFacts {
@@ -66,8 +67,8 @@ const DECISION_REASON: Record<string, string> = {
 export function trendLines(trend: AlarmMailFacts['trend']): string[] {
   if (!trend) return ['Trend: not evaluated yet for this tag.']
   return [
-    `Trend of lag-1 autocorrelation: Kendall tau ${number(trend.tauAr1)}; stability test p ${number(trend.pAr1)} against surrogates.`,
-    `Trend of variance: Kendall tau ${number(trend.tauVariance)}; change p ${number(trend.pVariance)}.`,
+    `Trend of lag-1 autocorrelation: Kendall tau ${number(trend.tauAr1)}; stability test p ${pValueText(trend.pAr1)} against surrogates.`,
+    `Trend of variance: Kendall tau ${number(trend.tauVariance)}; change p ${pValueText(trend.pVariance)}.`,
     ...(trend.evidence ? [`Early-warning decision: ${trend.evidence}, because ${DECISION_REASON[trend.evidence] ?? 'of the tests above'}.`] : []),
   ]
 }

@@ -1,5 +1,6 @@
 // Human-readable times and numbers for messages: UTC is stored, plant-local time is shown
 // beside it (docs/design.md §D9).
+import { plainNumber } from '../utils/numberText'
 
 /** "2026-01-05 09:00:00 Europe/London (08:00:00 UTC)". */
 export function plantTime(iso: string | Date, timeZone: string): string {
@@ -10,11 +11,10 @@ export function plantTime(iso: string | Date, timeZone: string): string {
   return `${local} ${timeZone} (${date.toISOString().slice(11, 19)} UTC)`
 }
 
-/** Four significant figures, no exponent for everyday magnitudes. */
+/**
+ * Four significant figures in plain notation at every magnitude: mails read as the screens do
+ * (shared/utils/numberText.ts owns the rule; "0.00012", never "1.200e-4").
+ */
 export function number(value: number | null | undefined): string {
-  if (value === null || value === undefined || Number.isNaN(value)) return '—'
-  if (!Number.isFinite(value)) return value > 0 ? '∞' : '−∞'
-  const abs = Math.abs(value)
-  if (abs !== 0 && (abs < 1e-3 || abs >= 1e6)) return value.toExponential(3)
-  return String(Number(value.toPrecision(4)))
+  return plainNumber(value, 4)
 }

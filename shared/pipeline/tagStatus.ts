@@ -5,7 +5,7 @@ import type { AlarmClass, AlarmState, TagStatus } from '../alarms/vocabulary'
 import { SETTLING, WARMING_UP, type EvaluationPoint } from './evaluateRecord'
 import { formatDuration } from '../utils/duration'
 import { NO_DATA_PERIODS } from '../utils/tileStatus'
-import { number } from '../notifications/format'
+import { pValueText } from '../utils/numberText'
 
 /**
  * A stability-trend p at or below this puts the tag on watch before it is significant (α 0.0025 or less).
@@ -44,10 +44,10 @@ export function deriveTagStatus(input: StatusInput): { status: TagStatus, reason
   if (warming) return { status: 'steady', reason: `analysis pending (${p!.quality})` }
   if (p?.evidence === 'slowing down' && p.fold.kind === 'projected')
     return { status: 'warning', reason: `slowing down; fold projected in ${formatDuration(p.fold.seconds)}` }
-  if (p?.evidence === 'slowing down') return { status: 'watch', reason: `slowing down (autocorrelation trend p ${number(p.pAr1)})` }
+  if (p?.evidence === 'slowing down') return { status: 'watch', reason: `slowing down (autocorrelation trend p ${pValueText(p.pAr1)})` }
   if (p?.evidence === 'noise level changed') return { status: 'watch', reason: 'noise level changed (variance up without slowing down)' }
   if (p?.pAr1 !== null && p?.pAr1 !== undefined && p.pAr1 <= WATCH_P)
-    return { status: 'watch', reason: `autocorrelation rising (p ${number(p.pAr1)})` }
+    return { status: 'watch', reason: `autocorrelation rising (p ${pValueText(p.pAr1)})` }
   // Past the warm-up but short of the first trend window: indicators, no judgement yet.
   if (p && p.evidence === null) return { status: 'steady', reason: 'trend test pending (the trend window is still filling)' }
   return { status: 'steady', reason: '' }

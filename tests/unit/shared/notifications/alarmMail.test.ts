@@ -16,6 +16,18 @@ const FACTS: AlarmMailFacts = {
 }
 
 describe('alarm mail text', () => {
+  it('writes numbers as the screens do: no exponent for tiny values, p below 0.001 as "< 0.001"', () => {
+    const { subject, text } = renderAlarmMail({
+      ...FACTS, measureLabel: 'variance', threshold: 0.00012, value: 0.000153, latestValue: 0.0000871,
+      trend: { ...FACTS.trend!, pAr1: 0.000028, tauAr1: -0.0004 },
+    })
+    expect(subject).toContain('variance below 0.00012')
+    expect(text).toContain('at 0.000153')
+    expect(text).toContain('Latest:    0.0000871')
+    expect(text).toContain('Kendall tau -0.0004; stability test p < 0.001')
+    expect(`${subject}\n${text}`).not.toMatch(/\de[-+]\d/)
+  })
+
   it('states priority, target, condition, trend, fold band, operator action, link and the advisory caution', () => {
     const { subject, text } = renderAlarmMail(FACTS)
     expect(subject).toContain('HIGH alarm')
