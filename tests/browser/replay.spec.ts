@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { url } from '@nuxt/test-utils/e2e'
-import { chromiumOnDemoSite, screenshot, signInThroughForm } from '../support/browser'
+import { chromiumOnDemoSite, screenshot, signInThroughForm, waitForHydration } from '../support/browser'
 import { testSql } from '../support/db'
 import { busToCollapse, FIXED_START_MS, tagWithDemoRules } from '../support/demoPlant'
 import { MANUAL_TICKS_ENV } from '../support/mailbox'
@@ -29,6 +29,7 @@ describe('engineer replays stored history on the workbench', () => {
     await page.goto(url('/workbench'))
     await page.getByRole('link', { name: 'Replays' }).click()
     await page.getByRole('heading', { name: 'Workbench · replays' }).waitFor()
+    await waitForHydration(page)
     const form = page.getByRole('form', { name: 'New replay', exact: true })
     await form.getByRole('combobox', { name: /^Tag/ }).selectOption({ label: 'EI-371 — Test signal EI-371' })
     await form.getByRole('textbox', { name: /^From/ }).fill(typedPlantTime(Date.parse(rows[0]!.time) - 60_000))
@@ -91,6 +92,7 @@ describe('engineer replays stored history on the workbench', () => {
     const page = await browser.newPage()
     await signInThroughForm(page, 'engineer')
     await page.goto(url('/workbench/replays'))
+    await waitForHydration(page)
     const form = page.getByRole('form', { name: 'New replay of a file' })
     await form.getByRole('combobox', { name: /^Tag whose settings/ }).selectOption({ label: 'EI-372 — Test signal EI-372' })
     await form.locator('input[name="replayFile"]').setInputFiles({ name: 'bus-collapse.csv', mimeType: 'text/csv', buffer: Buffer.from(['time,tag,value', ...lines].join('\n')) })
@@ -133,6 +135,7 @@ describe('engineer replays stored history on the workbench', () => {
     const page = await browser.newPage()
     await signInThroughForm(page, 'engineer')
     await page.goto(url('/workbench/replays'))
+    await waitForHydration(page)
     const form = page.getByRole('form', { name: 'New replay', exact: true })
     await form.getByRole('combobox', { name: /^Tag, or unit/ }).selectOption({ label: 'B-373 — Workbench load bus, unit rule' })
     await form.getByText('over the slow-mode fits the live pipeline recorded').waitFor()

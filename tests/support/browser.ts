@@ -54,6 +54,17 @@ export async function signInThroughForm(page: Page, role: Role): Promise<void> {
   await page.getByTestId('signed-in-as').waitFor()
 }
 
+/**
+ * Resolves once Nuxt has hydrated the page. A control set before that is lost: hydration's v-model
+ * sets the server-rendered value back (a select picked on a busy machine stayed on its first tag).
+ */
+export async function waitForHydration(page: Page): Promise<void> {
+  await page.waitForFunction(() => {
+    const root = document.getElementById('__nuxt') as (HTMLElement & { __vue_app__?: { $nuxt?: { isHydrating?: boolean } } }) | null
+    return root?.__vue_app__?.$nuxt?.isHydrating === false
+  })
+}
+
 export async function screenshot(page: Page, name: string): Promise<string> {
   mkdirSync(SCREENSHOTS, { recursive: true })
   const path = join(SCREENSHOTS, `${name}.png`)
