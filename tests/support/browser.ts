@@ -48,6 +48,7 @@ export function chromiumOnDemoSite(sql: postgres.Sql): { newPage: () => Promise<
 
 export async function signInThroughForm(page: Page, role: Role): Promise<void> {
   await page.goto(url('/sign-in'))
+  await waitForHydration(page)
   await page.getByLabel('E-mail').fill(demoEmail(role))
   await page.getByLabel('Password').fill(DEMO_PASSWORD)
   await page.getByRole('button', { name: 'Sign in' }).click()
