@@ -11,7 +11,7 @@ import { MAX_STOP_TAU, RECORD_SAMPLES, studyRecords, type SetCounts } from './re
 import { PRODUCT_ALPHA, scoreRecord, type ProcedureBudget, type RecordOutcome } from './scoreRecord'
 import {
   printDetection, printDetectionByDistance, printDiscrimination, printFalsePositives, printLeadTimes, printMisses, printNoFoldOnNulls,
-  printStreamRates, printTipProjections,
+  printStreamRates, printTipProjections, printTipProjectionsByDistance,
 } from './tables'
 
 interface StudyPlan {
@@ -70,6 +70,7 @@ export async function runStudy(quick: boolean): Promise<void> {
   printFalsePositives(outcomes)
   printLeadTimes(outcomes)
   printTipProjections(outcomes)
+  printTipProjectionsByDistance(outcomes)
   printNoFoldOnNulls(outcomes)
   printStreamRates(outcomes)
   printMisses(outcomes)

@@ -71,15 +71,22 @@ const STOP_BINS: readonly [number, number][] = [[0, 25], [25, 50], [50, 100], [1
  * end where no method can see it yet; this splits it, for both procedures on the same records.
  */
 export function printDetectionByDistance(outcomes: readonly RecordOutcome[]): void {
-  const rows = eachModelSet(outcomes).filter(s => s.length === 'short').flatMap(({ model, sets }) =>
+  printTable(`2b. Detection on short forced records by where the data stop before the bifurcation [Wilson 95%]`,
+    ['model', 'data stop', 'LIVE any alert', `Dakos α=${DAKOS_ALPHA}`, `Dakos α=${PRODUCT_ALPHA}`],
+    shortRecordsByDistance(outcomes, (inBin) => {
+      const r = alertRates(inBin)
+      return [formatRate(r.liveAny), formatRate(r.dakos05), formatRate(r.dakos01)]
+    }))
+}
+
+/** One row per model and STOP_BINS bin of the short forced records, its cells from `cells`. */
+function shortRecordsByDistance(outcomes: readonly RecordOutcome[], cells: (inBin: RecordOutcome[]) => string[]): string[][] {
+  return eachModelSet(outcomes).filter(s => s.length === 'short').flatMap(({ model, sets }) =>
     STOP_BINS.map(([low, high]) => {
       const inBin = sets.forced.filter(o => o.meta.stopBeforeTau! >= low && o.meta.stopBeforeTau! < high)
-      const r = alertRates(inBin)
       const bin = Number.isFinite(high) ? `${low}–${high}τ` : `≥ ${low}τ`
-      return [model, bin, formatRate(r.liveAny), formatRate(r.dakos05), formatRate(r.dakos01)]
+      return [model, bin, ...cells(inBin)]
     }))
-  printTable(`2b. Detection on short forced records by where the data stop before the bifurcation [Wilson 95%]`,
-    ['model', 'data stop', 'LIVE any alert', `Dakos α=${DAKOS_ALPHA}`, `Dakos α=${PRODUCT_ALPHA}`], rows)
 }
 
 export function printFalsePositives(outcomes: readonly RecordOutcome[]): void {
@@ -113,6 +120,16 @@ export function printTipProjections(outcomes: readonly RecordOutcome[]): void {
     eachModelSet(outcomes).map(({ model, length, sets }) => {
       const { live, dakos } = forcedScores(sets.forced)
       return [model, length, ...tipCells(live.tip), ...tipCells(dakos.tip)]
+    }))
+}
+
+/** Table 5 split as table 2b: where the data stop decides whether a horizon can be given at all. */
+export function printTipProjectionsByDistance(outcomes: readonly RecordOutcome[]): void {
+  printTable('5b. Tip projection on short forced records by where the data stop before the bifurcation (columns as table 5)',
+    ['model', 'data stop', 'LIVE given', 'LIVE band covers', 'LIVE beats naive', 'rel.err', 'Dakos given', 'Dakos band covers', 'Dakos beats naive', 'rel.err'],
+    shortRecordsByDistance(outcomes, (inBin) => {
+      const { live, dakos } = forcedScores(inBin)
+      return [...tipCells(live.tip), ...tipCells(dakos.tip)]
     }))
 }
 
