@@ -7,7 +7,7 @@ import { freeLoopbackPort } from '../support/opcua'
 import { mailboxMessages, runServerTask } from '../support/pipeline'
 import { setupBuiltServer } from '../support/server'
 import { call } from '../support/session'
-import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
+import { launchChromium, screenshot, signInThroughForm, waitForHydration } from '../support/browser'
 
 // The server mails through the local mailbox, and its public URL is its own address, so the link
 // in a mail is followed as it stands.
@@ -36,6 +36,7 @@ describe('admin manages gateways', () => {
     const page = await context.newPage()
     await signInThroughForm(page, 'admin')
     await page.goto(url('/admin/gateways'))
+    await waitForHydration(page)
     await page.getByLabel('Name').fill('Boiler house edge box')
     await page.getByRole('button', { name: 'Create and show key' }).click()
     const key = (await page.getByTestId('new-gateway-key').locator('code').first().textContent())!.trim()
@@ -62,6 +63,7 @@ describe('admin journey: a user, a key rotation and a mail route', () => {
     const page = await context.newPage()
     await signInThroughForm(page, 'admin')
     await page.goto(url('/admin/users'))
+    await waitForHydration(page)
     const email = 'ines.halloran@harrowgate.example'
     await page.getByLabel('E-mail').fill(email)
     await page.getByLabel('Full name').fill('Ines Halloran')
@@ -81,6 +83,7 @@ describe('admin journey: a user, a key rotation and a mail route', () => {
     const password = 'lantern orchard copper violin'
     const linkPage = await context.newPage()
     await linkPage.goto(link!)
+    await waitForHydration(linkPage)
     await linkPage.getByText('Ines Halloran').waitFor()
     await screenshot(linkPage, 'admin-journey-set-password')
     await linkPage.getByLabel('New password').fill(password)
@@ -103,6 +106,7 @@ describe('admin journey: a user, a key rotation and a mail route', () => {
   it('rotates a gateway key: the new key works and the old one stops at once', async () => {
     const page = await context.newPage()
     await page.goto(url('/admin/gateways'))
+    await waitForHydration(page)
     await page.getByLabel('Name').fill('Tank farm edge box')
     await page.getByRole('button', { name: 'Create and show key' }).click()
     const oldKey = (await page.getByTestId('new-gateway-key').locator('code').first().textContent())!.trim()
@@ -129,6 +133,7 @@ describe('admin journey: a user, a key rotation and a mail route', () => {
   it('adds a mail route whose test e-mail arrives and shows as sent in its delivery log', async () => {
     const page = await context.newPage()
     await page.goto(url('/admin/routes'))
+    await waitForHydration(page)
     const to = 'night.lead@harrowgate.example'
     await page.getByLabel('Name', { exact: true }).fill('Night shift lead')
     await page.getByLabel('Recipient e-mail').fill(to)

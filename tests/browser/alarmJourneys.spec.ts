@@ -5,7 +5,7 @@ import { testSql } from '../support/db'
 import { startTestMailbox, MANUAL_TICKS_ENV } from '../support/mailbox'
 import { createTestTag, ingestAll, mailboxMessages, tick, waitForDemoSite } from '../support/pipeline'
 import { setupBuiltServer } from '../support/server'
-import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
+import { launchChromium, screenshot, signInThroughForm, waitForHydration } from '../support/browser'
 import { call, signInAs } from '../support/session'
 import { expectAccessible } from '../support/axe'
 
@@ -77,6 +77,7 @@ describe('alarm journeys (issue 12)', () => {
     const link = /Open the alarm: (\S+)/.exec(mail!.text)![1]!
     expect(link).toBe(`http://brinkline.test:3000/alarms/${id}`)
     await page.goto(url(new URL(link).pathname))
+    await waitForHydration(page)
     await page.getByRole('heading', { name: new RegExp(`#${id} ${LIVE} high limit`) }).waitFor()
     await expect(page.getByTestId('latest-activation').textContent()).resolves.toMatch(/at 111 K \(activation 2\)/)
     await page.getByLabel('Comment').fill('Heater isolated per procedure')

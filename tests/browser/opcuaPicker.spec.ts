@@ -10,7 +10,7 @@ import { MANUAL_TICKS_ENV } from '../support/mailbox'
 import { eventually, freeLoopbackPort } from '../support/opcua'
 import { createTestTag, waitForDemoSite } from '../support/pipeline'
 import { setupBuiltServer } from '../support/server'
-import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
+import { launchChromium, screenshot, signInThroughForm, waitForHydration } from '../support/browser'
 
 // Issue 17 item 1: an admin connects Brinkline to a plant OPC UA server (a real node-opcua server
 // on loopback, in this process), walks its address space, maps one variable to a tag that exists,
@@ -54,6 +54,7 @@ describe('admin browses a plant OPC UA server and maps its variables', { timeout
     const page = await context.newPage()
     await signInThroughForm(page, 'admin')
     await page.goto(url('/admin/opcua'))
+    await waitForHydration(page)
     await page.locator('input[name="opcua-name"]').fill('Dosing skid server')
     await page.locator('input[name="opcua-endpoint"]').fill(plant.endpointUrl)
     await page.locator('input[name="opcua-sampling"]').fill('0')

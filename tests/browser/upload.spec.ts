@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { BrowserContext, Page } from 'playwright-core'
 import { url } from '@nuxt/test-utils/e2e'
 import { setupBuiltServer } from '../support/server'
-import { launchChromium, screenshot, signInThroughForm } from '../support/browser'
+import { launchChromium, screenshot, signInThroughForm, waitForHydration } from '../support/browser'
 import { testSql } from '../support/db'
 import { MAX_UPLOAD_BYTES } from '../../shared/schemas/upload'
 
@@ -36,6 +36,7 @@ async function previewThroughPage(name: string, lines: string[]) {
   const page = await context.newPage()
   await signInThroughForm(page, 'engineer')
   await page.goto(url('/upload'))
+  await waitForHydration(page)
   await page.getByLabel('Historian CSV file').setInputFiles(file)
   await page.getByRole('heading', { name: 'Preview and column mapping' }).waitFor()
   return page
@@ -114,6 +115,7 @@ describe('engineer uploads historian CSV', () => {
     page.on('request', r => { if (r.url().includes('/api/uploads/')) sent.push(r.url()) })
     await signInThroughForm(page, 'engineer')
     await page.goto(url('/upload'))
+    await waitForHydration(page)
     await page.getByLabel('Historian CSV file').setInputFiles(file)
     const refusal = page.getByRole('alert').filter({ hasText: 'is larger than one import takes' })
     await refusal.waitFor()
