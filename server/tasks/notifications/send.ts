@@ -1,5 +1,3 @@
-import { schemaReady } from '../../plugins/0.migrate'
-
 // Delivers the notification outbox. NUXT_SENDER_SCHEDULED=false stops scheduled runs on this
 // instance; with no NUXT_SMTP_URL nothing is sent and the outbox keeps every message.
 export default defineTask<SendReport | string>({
@@ -7,13 +5,10 @@ export default defineTask<SendReport | string>({
   async run({ payload }) {
     const config = useRuntimeConfig()
     if (payload.scheduledTime && !config.sender.scheduled) return { result: 'scheduled runs are switched off' }
-    await schemaReady()
     const transport = useMailTransport()
     if (!transport) return { result: 'no SMTP relay configured (NUXT_SMTP_URL)' }
-    return {
-      result: await sendDueMail(useDb(), transport, {
-        from: config.mailFrom, publicUrl: config.publicUrl, notifyMaxAgeMinutes: Number(config.notify.maxAgeMinutes),
-      }),
-    }
+    return scheduledWork('notifications:send', payload, () => sendDueMail(useDb(), transport, {
+      from: config.mailFrom, publicUrl: config.publicUrl, notifyMaxAgeMinutes: Number(config.notify.maxAgeMinutes),
+    }))
   },
 })

@@ -1,13 +1,10 @@
-import { schemaReady } from '../../plugins/0.migrate'
-
 // The storage job (docs/architecture.md, "Sample storage"): partitions, raw windows, size snapshots.
 // Scheduled runs can be switched off per instance with NUXT_STORAGE_SCHEDULED=false.
 export default defineTask<MaintenanceReport | string>({
   meta: { name: 'storage:maintain', description: 'Sample partitions ahead, raw windows applied (archive first), size snapshot' },
   async run({ payload }) {
     if (payload.scheduledTime && !useRuntimeConfig().storage.scheduled) return { result: 'scheduled runs are switched off' }
-    await schemaReady()
     // As the schema owner: the job makes, analyses and drops partitions.
-    return { result: await runStorageMaintenance(useOwnerDb()) }
+    return scheduledWork('storage:maintain', payload, () => runStorageMaintenance(useOwnerDb()))
   },
 })
