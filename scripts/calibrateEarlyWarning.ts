@@ -5,7 +5,7 @@
 // slides, the on-delay) on the same looks. The records are the detection study's simulations
 // (scripts/bench/detectionStudy/recordSets.ts) drawn from seed indices the benchmark never
 // scores, so what is tuned here is measured there on fresh seeds.
-//   npx tsx scripts/calibrateEarlyWarning.ts    (SHORT=150 LONG=8 records per set; GRID=α:budget:onDelay,…;
+//   npx tsx scripts/calibrateEarlyWarning.ts    (SHORT=150 LONG=8 records per set; GRID=α:budget:onDelay,…; TREND, EVERY;
 //   SAMPLES=900 makes the short records that long: their nulls are also scored on their first
 //   460, 600 and 750 samples, since a look only reads data up to its own time)
 import { existsSync, readFileSync, writeFileSync } from 'node:fs'
@@ -41,7 +41,13 @@ interface Candidate {
   onDelay: number
 }
 
-const settings = { ...defaultIndicatorSettings(1), alpha: 1 }
+// TREND=samples EVERY=samples try another largest trend window and evaluation interval on the same records.
+const settings = {
+  ...defaultIndicatorSettings(1),
+  alpha: 1,
+  ...(process.env.TREND ? { trendWindowSamples: env('TREND', 0) } : {}),
+  ...(process.env.EVERY ? { evaluateEvery: env('EVERY', 0) } : {}),
+}
 
 function looksOf(record: StudyRecord): Look[] {
   const { times, values } = record.series
